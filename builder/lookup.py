@@ -1,0 +1,75 @@
+"""Find components and pairs by what a user types: id, name, synonym or CAS number."""
+
+from __future__ import annotations
+
+import difflib
+import re
+
+from .catalogue import Catalogue
+from .errors import LookupFailure
+from .records import Component, PairRecord
+
+__all__ = ["find_component", "find_pair", "normalise"]
+
+
+def normalise(text: str) -> str:
+    """Case, spaces, hyphens and underscores do not matter.
+
+    >>> normalise("Ethyl  Acetate"), normalise("ethyl-acetate"), normalise("N_Hexane")
+    ('ethylacetate', 'ethylacetate', 'nhexane')
+    """
+    return re.sub(r"[\s_\-]+", "", text.casefold())
+
+
+def _index(catalogue: Catalogue) -> dict[str, str]:
+    index: dict[str, str] = {}
+    for component in catalogue.components.values():
+        for name in component.names():
+            index.setdefault(normalise(name), component.id)
+        index[component.cas] = component.id  # CAS keeps its hyphens
+    return index
+
+
+def find_component(catalogue: Catalogue, query: str) -> Component:
+    """The component a user means, or :class:`LookupFailure` with close names.
+
+    Exact matches on id, name, synonym, CAS number or formula (in that
+    order of preference) win; otherwise the error suggests close spellings.
+    """
+    index = _index(catalogue)
+    key = query.strip()
+    cid = index.get(key) or index.get(normalise(key))
+    if cid is not None:
+        return catalogue.components[cid]
+    spellings: dict[str, str] = {}
+    for component in catalogue.components.values():
+        for name in (component.id, component.name, *component.synonyms):
+            spellings.setdefault(normalise(name), name)
+    close = difflib.get_close_matches(normalise(key), list(spellings), n=4, cutoff=0.6)
+    # Substring matches help for partial names ("xylene" -> "o-xylene", ...).
+    partial = [s for s in spellings if normalise(key) and normalise(key) in s]
+    suggestions = list(dict.fromkeys(spellings[s] for s in [*close, *partial]))[:5]
+    raise LookupFailure("component", query, suggestions)
+
+
+def find_pair(catalogue: Catalogue, first: str, second: str
+              ) -> tuple[PairRecord, bool, Component, Component]:
+    """The pair of two named components in either order.
+
+    Returns the record, whether the user's order is the reverse of the
+    record's, and the two components in the user's order.
+    """
+    c1 = find_component(catalogue, first)
+    c2 = find_component(catalogue, second)
+    if c1.id == c2.id:
+        raise LookupFailure("pair", f"{first} + {second}",
+                            ["two different components"])
+    found = catalogue.pair_of(c1.id, c2.id)
+    if found is None:
+        partners = sorted({p.component2 if p.component1 == c1.id else p.component1
+                           for p in catalogue.pairs.values() if c1.id in (p.component1,
+                                                                           p.component2)})
+        hint = [f"{c1.id} with {o}" for o in partners[:5]]
+        raise LookupFailure("catalogued pair", f"{c1.id} + {c2.id}", hint)
+    record, swapped = found
+    return record, swapped, c1, c2
