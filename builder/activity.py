@@ -255,7 +255,8 @@ class TemperatureFunction:
 class ActivityModel(Protocol):
     """What the equilibrium solvers need: ``(ln γ1, ln γ2)`` at ``(x1, T)``."""
 
-    name: str
+    @property
+    def name(self) -> str: ...
 
     def ln_gamma(self, x1: ArrayLike, T_K: ArrayLike) -> LnGamma: ...
 

@@ -39,7 +39,7 @@ from .records import (
 from .units import GAS_CONSTANT_J_PER_MOL_K, UnitError, parse_quantity, split_quantity, to_si
 from .vapour_pressure import Antoine, ExtendedAntoine, VapourPressure
 
-__all__ = ["Catalogue", "load_catalogue", "DEFAULT_CATALOGUE"]
+__all__ = ["DEFAULT_CATALOGUE", "Catalogue", "load_catalogue"]
 
 #: The catalogue shipped with the project.
 DEFAULT_CATALOGUE = Path(__file__).resolve().parent.parent / "pairs"
@@ -74,7 +74,7 @@ class _Entry:
         self.entry = entry
         self.errors = errors
         self.prefix = prefix
-        self.ok = True
+        self._errors_before = len(errors)
         if not isinstance(data, Mapping):
             self._fail("", "a mapping of field names to values", _show(data))
             data = {}
@@ -82,11 +82,15 @@ class _Entry:
         self.used: set[str] = set()
 
     # -- reporting --------------------------------------------------------
+    @property
+    def ok(self) -> bool:
+        """No problem recorded in this entry (or its children) so far."""
+        return len(self.errors) == self._errors_before
+
     def _path(self, name: str) -> str:
         return f"{self.prefix}{name}" if name else self.prefix.rstrip(".")
 
     def _fail(self, name: str, expected: str, found: str) -> None:
-        self.ok = False
         self.errors.append(CatalogueError(self.file, self.entry, self._path(name), expected, found))
 
     def fail(self, name: str, expected: str, found: Any) -> None:
@@ -134,7 +138,8 @@ class _Entry:
         value = self.raw(name, default, "a number")
         if value is None:
             return math.nan
-        if isinstance(value, bool) or not isinstance(value, (int, float)) or not math.isfinite(value):
+        if (isinstance(value, bool) or not isinstance(value, (int, float))
+                or not math.isfinite(value)):
             self.fail(name, "a plain number", value)
             return math.nan
         if positive and value <= 0:
@@ -240,8 +245,9 @@ def _vapour_pressure(entry: _Entry) -> VapourPressure | None:
         T_unit = entry.choice("temperature_unit", ("K", "C"))
         if not (entry.ok and log and T_unit and P_unit):
             return None
-        return Antoine.from_published(A, B, C, log_base=log, P_unit=P_unit,  # type: ignore[arg-type]
-                                      T_unit=T_unit, T_min_K=T_min, T_max_K=T_max)  # type: ignore[arg-type]
+        return Antoine.from_published(A, B, C, log_base="10" if log == "10" else "e",
+                                      P_unit=P_unit, T_unit="K" if T_unit == "K" else "C",
+                                      T_min_K=T_min, T_max_K=T_max)
     if equation == "dippr101":
         D, E = entry.number("D"), entry.number("E")
         if not (entry.ok and P_unit):
@@ -541,12 +547,16 @@ _MODELS: dict[str, Callable[..., act.ActivityModel | None]] = {
 
 
 def _load_pair(entry: _Entry, components: Mapping[str, Component],
-               references: Mapping[str, Reference]) -> PairRecord | None:
+               references: Mapping[str, Reference], broken: set[str]) -> PairRecord | None:
     pid = entry.text("id")
-    ids = entry.text_list("components")
+    ids: tuple[str, ...] = entry.text_list("components")
     if len(ids) != 2 or ids[0] == ids[1]:
         entry.fail("components", "two different component ids", list(ids))
         ids = ()
+    if any(cid in broken for cid in ids):
+        # The component's own errors are reported; the pair is not loaded.
+        entry.used.update(entry.data)
+        return None
     for cid in ids:
         if cid not in components:
             entry.fail("components", "ids of files in components/", cid)
@@ -597,10 +607,11 @@ def _load_pair(entry: _Entry, components: Mapping[str, Component],
     notes = entry.text("notes", "")
     tags = entry.text_list("tags")
     entry.finish()
-    if not entry.ok or model is None or source is None:
+    if not entry.ok or model is None or source is None or len(ids) != 2:
         return None
+    first, second = ids
     return PairRecord(
-        id=pid, component1=ids[0], component2=ids[1], model=model, model_kind=kind,
+        id=pid, component1=first, component2=second, model=model, model_kind=kind,
         published_parameters=published, T_min_K=T_min, T_max_K=T_max, source=source,
         quality=quality, isobars_Pa=isobars, isotherms_K=isotherms, recorded=recorded,
         notes=notes, file=entry.file, tags=tags,
@@ -703,7 +714,7 @@ def load_catalogue(root: Path | str = DEFAULT_CATALOGUE, only: Iterable[str] = (
             record = loader(entry)
             if record is None:
                 continue
-            rid = getattr(record, "id")
+            rid = str(getattr(record, "id"))  # noqa: B009 - every record kind has an id
             if rid != path.stem:
                 entry.fail("id", f"the file name without .yaml ({path.stem!r})", rid)
             elif rid in out:
@@ -714,8 +725,9 @@ def load_catalogue(root: Path | str = DEFAULT_CATALOGUE, only: Iterable[str] = (
 
     references = load_all("references", _load_reference)
     components = load_all("components", lambda e: _load_component(e, references))
+    broken = {p.stem for p in _files(root / "components")} - set(components)
     wanted = set(only)
-    pairs = load_all("binaries", lambda e: _load_pair(e, components, references))
+    pairs = load_all("binaries", lambda e: _load_pair(e, components, references, broken))
     if wanted:
         unknown = wanted - set(pairs)
         for name in sorted(unknown):

@@ -54,7 +54,8 @@ class BinarySystem:
 
     def swapped(self) -> BinarySystem:
         """The same mixture with components 1 and 2 exchanged."""
-        inner = self.activity.inner if isinstance(self.activity, Swapped) else Swapped(self.activity)
+        activity = self.activity
+        inner = activity.inner if isinstance(activity, Swapped) else Swapped(activity)
         return BinarySystem(self.psat2, self.psat1, inner)
 
 
@@ -104,7 +105,8 @@ def k_values(
     >>> from builder.activity import Ideal
     >>> from builder.vapour_pressure import Antoine
     >>> flat = Antoine(A=11.0, B=0.0, C=0.0, T_min_K=1.0, T_max_K=1e3)  # P = e**11 Pa
-    >>> [round(float(k), 6) for k in k_values(BinarySystem(flat, flat, Ideal()), 0.5, 300.0, 2 * np.exp(11.0))]
+    >>> system = BinarySystem(flat, flat, Ideal())
+    >>> [round(float(k), 6) for k in k_values(system, 0.5, 300.0, 2 * np.exp(11.0))]
     [0.5, 0.5]
     """
     T = np.asarray(T_K, dtype=float)

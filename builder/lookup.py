@@ -41,14 +41,15 @@ def find_component(catalogue: Catalogue, query: str) -> Component:
     cid = index.get(key) or index.get(normalise(key))
     if cid is not None:
         return catalogue.components[cid]
-    spellings: dict[str, str] = {}
+    owner: dict[str, str] = {}
     for component in catalogue.components.values():
         for name in (component.id, component.name, *component.synonyms):
-            spellings.setdefault(normalise(name), name)
-    close = difflib.get_close_matches(normalise(key), list(spellings), n=4, cutoff=0.6)
+            owner.setdefault(normalise(name), component.id)
+    close = difflib.get_close_matches(normalise(key), list(owner), n=6, cutoff=0.6)
     # Substring matches help for partial names ("xylene" -> "o-xylene", ...).
-    partial = [s for s in spellings if normalise(key) and normalise(key) in s]
-    suggestions = list(dict.fromkeys(spellings[s] for s in [*close, *partial]))[:5]
+    partial = [s for s in owner if normalise(key) and normalise(key) in s]
+    # One suggestion per component, shown by its id.
+    suggestions = list(dict.fromkeys(owner[s] for s in [*close, *partial]))[:5]
     raise LookupFailure("component", query, suggestions)
 
 

@@ -127,7 +127,8 @@ def to_si(value: float, unit: str, dimension: str) -> float:
     table = UNITS[dimension]
     if unit not in table:
         known = ", ".join(table)
-        raise UnitError(f"unit {unit!r} is not a {dimension.replace('_', ' ')} unit (use one of {known})")
+        kind = dimension.replace("_", " ")
+        raise UnitError(f"unit {unit!r} is not a {kind} unit (use one of {known})")
     result = table[unit](value)
     if not math.isfinite(result):
         raise UnitError(f"{value} {unit} is not a finite {dimension.replace('_', ' ')}")

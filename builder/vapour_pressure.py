@@ -44,8 +44,11 @@ _ZERO_CELSIUS_K = 273.15
 class VapourPressure(Protocol):
     """What the equilibrium solvers need from a vapour-pressure correlation."""
 
-    T_min_K: float
-    T_max_K: float
+    @property
+    def T_min_K(self) -> float: ...
+
+    @property
+    def T_max_K(self) -> float: ...
 
     def pressure_Pa(self, T_K: ArrayLike) -> FloatArray: ...
 

@@ -1,0 +1,26 @@
+"""Shared fixtures: the shipped catalogue and the equilibrium system of each pair."""
+
+from __future__ import annotations
+
+import os
+import warnings
+
+import pytest
+
+from builder.catalogue import Catalogue, load_catalogue
+from builder.equilibrium import BinarySystem
+from builder.point import system_for
+
+# The reference libraries print deprecation chatter on import; it is not ours.
+warnings.filterwarnings("ignore", category=DeprecationWarning)
+os.environ.setdefault("MPLBACKEND", "Agg")
+
+
+@pytest.fixture(scope="session")
+def catalogue() -> Catalogue:
+    return load_catalogue()
+
+
+@pytest.fixture(scope="session")
+def systems(catalogue: Catalogue) -> dict[str, BinarySystem]:
+    return {pid: system_for(pair, catalogue) for pid, pair in catalogue.pairs.items()}
