@@ -1,0 +1,161 @@
+"""Homogeneous azeotropes of a binary on an isobar or an isotherm.
+
+An azeotrope is where the vapour has the liquid's composition, ``y1 = x1``,
+i.e. where the relative volatility ``α12 = K1/K2`` passes through 1.  Along
+the bubble curve (at fixed P, or fixed T) the function
+``f(x1) = ln α12(x1)`` is evaluated on the whole composition range,
+including the pure ends themselves (the infinite-dilution values), every sign
+change is bracketed, and each root is solved to solver precision with the
+bracketed Newton method of :mod:`builder.solvers` (each evaluation is itself
+a converged bubble point).  Several azeotropes, and azeotropes very close to
+a pure end, are found as long as the grid separates them; the result says
+whether the whole range was searched (every grid point converged).
+
+Kind: on an isobar ``α12`` falling through 1 with increasing ``x1`` is a
+minimum-boiling azeotrope (a temperature minimum), rising through 1 a
+maximum-boiling one; on an isotherm, falling is a pressure maximum and rising a
+pressure minimum.  These follow from ``y1 - x1`` changing sign with the slope
+of the bubble line (the Gibbs-Konovalov theorem).
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+
+import numpy as np
+from numpy.typing import NDArray
+
+from . import equilibrium as eq
+from .solvers import solve_bracketed
+
+__all__ = ["Azeotrope", "AzeotropeSearch", "find_azeotropes", "search_grid"]
+
+FloatArray = NDArray[np.float64]
+
+KIND_ISOBAR = {True: "minimum-boiling", False: "maximum-boiling"}
+KIND_ISOTHERM = {True: "maximum-pressure", False: "minimum-pressure"}
+
+
+@dataclass(frozen=True)
+class Azeotrope:
+    """One azeotrope: composition, temperature, pressure and kind.
+
+    ``heterogeneous`` azeotropes (vapour in equilibrium with two liquids)
+    carry the two liquids' compositions in ``liquid_x1``.
+    """
+
+    x1: float
+    T_K: float
+    P_Pa: float
+    kind: str
+    heterogeneous: bool = False
+    liquid_x1: tuple[float, float] | None = None
+
+    def to_json(self) -> dict[str, object]:
+        data: dict[str, object] = {"x1": self.x1, "T_K": self.T_K, "P_Pa": self.P_Pa,
+                                   "kind": self.kind, "heterogeneous": self.heterogeneous}
+        if self.heterogeneous and self.liquid_x1 is not None:
+            data["liquid_x1"] = list(self.liquid_x1)
+        return data
+
+
+@dataclass(frozen=True)
+class AzeotropeSearch:
+    """Every homogeneous azeotrope found, and whether the whole range was searched."""
+
+    azeotropes: tuple[Azeotrope, ...]
+    complete: bool
+    unresolved: int = 0  # brackets whose root did not converge
+
+
+def search_grid(points: int = 401) -> FloatArray:
+    """Compositions for the sign search: the pure ends, a log-spaced approach to both
+    ends (1e-6 ... 1e-2) and an even grid.
+
+    >>> g = search_grid(11)
+    >>> float(g[0]), float(g[1]), float(g[-1])
+    (0.0, 1e-06, 1.0)
+    """
+    near = np.logspace(-6, -2, 9)
+    return np.unique(np.concatenate([[0.0, 1.0], near, 1.0 - near,
+                                     np.linspace(0.0, 1.0, points)]))
+
+
+def _ln_alpha(system: eq.BinarySystem, result: eq.EquilibriumResult) -> FloatArray:
+    return np.asarray(np.log(result.relative_volatility(system)), dtype=float)
+
+
+def find_azeotropes(system: eq.BinarySystem, *, P_Pa: float | None = None,
+                    T_K: float | None = None, grid: FloatArray | None = None,
+                    exclude: NDArray[np.bool_] | None = None) -> AzeotropeSearch:
+    """Azeotropes on the isobar ``P_Pa`` or on the isotherm ``T_K`` (give one).
+
+    ``exclude`` marks grid points to leave out of the search (for example
+    where the homogeneous liquid is unstable); a root between excluded points
+    is not reported.
+
+    Examples
+    --------
+    An ideal liquid with equal vapour pressures everywhere has none; a
+    symmetric Margules liquid (A = 1) with equal vapour pressures has one at
+    x1 = 0.5, a pressure maximum:
+
+    >>> from builder.activity import Margules
+    >>> from builder.vapour_pressure import Antoine
+    >>> flat = Antoine(A=11.0, B=3000.0, C=0.0, T_min_K=200.0, T_max_K=500.0)
+    >>> steeper = Antoine(A=12.0, B=3300.0, C=0.0, T_min_K=200.0, T_max_K=500.0)
+    >>> s = eq.BinarySystem(flat, flat, Margules.constant(1.0, 1.0))
+    >>> [(round(a.x1, 9), a.kind) for a in find_azeotropes(s, T_K=300.0).azeotropes]
+    [(0.5, 'maximum-pressure')]
+    """
+    if (P_Pa is None) == (T_K is None):
+        raise ValueError("give exactly one of P_Pa (isobar) or T_K (isotherm)")
+    x = search_grid() if grid is None else np.asarray(grid, dtype=float)
+    isobar = P_Pa is not None
+
+    def solve(x1: FloatArray) -> eq.EquilibriumResult:
+        if isobar:
+            assert P_Pa is not None
+            return eq.bubble_temperature(system, x1, P_Pa)
+        assert T_K is not None
+        return eq.bubble_pressure(system, x1, T_K)
+
+    result = solve(x)
+    f = _ln_alpha(system, result)
+    usable = result.converged & np.isfinite(f)
+    if exclude is not None:
+        usable &= ~exclude
+    complete = bool(usable.all()) if exclude is None else bool(
+        (result.converged | exclude).all())
+    idx = np.flatnonzero(usable)
+    # Sign changes between consecutive usable points; exact zeros at interior points.
+    fa, fb = f[idx[:-1]], f[idx[1:]]
+    change = np.flatnonzero(np.sign(fa) * np.sign(fb) < 0)
+    lo, hi = x[idx[change]], x[idx[change + 1]]
+    falling = fa[change] > 0  # α from above 1 to below 1 with increasing x1
+    exact = [i for i in idx if f[i] == 0.0 and 0.0 < x[i] < 1.0]
+
+    azeotropes: list[Azeotrope] = []
+    unresolved = 0
+    if lo.size:
+        def residual(u: FloatArray, mask: NDArray[np.bool_]) -> FloatArray:
+            return _ln_alpha(system, solve(u))
+
+        roots = solve_bracketed(residual, lo, hi, xtol=1e-13, ftol=1e-14)
+        at = solve(roots.root)
+        for k in range(lo.size):
+            if not (roots.converged[k] and at.converged[k]):
+                unresolved += 1
+                continue
+            kind = (KIND_ISOBAR if isobar else KIND_ISOTHERM)[bool(falling[k])]
+            azeotropes.append(Azeotrope(x1=float(roots.root[k]), T_K=float(at.T_K[k]),
+                                        P_Pa=float(at.P_Pa[k]), kind=kind))
+    for i in exact:
+        before, after = f[max(i - 1, 0)], f[min(i + 1, len(f) - 1)]
+        if before * after < 0:
+            kind = (KIND_ISOBAR if isobar else KIND_ISOTHERM)[bool(before > 0)]
+            azeotropes.append(Azeotrope(x1=float(x[i]), T_K=float(result.T_K[i]),
+                                        P_Pa=float(result.P_Pa[i]), kind=kind))
+    azeotropes.sort(key=lambda a: a.x1)
+    return AzeotropeSearch(tuple(azeotropes), complete=complete and unresolved == 0,
+                           unresolved=unresolved)
