@@ -604,6 +604,7 @@ def _load_pair(entry: _Entry, components: Mapping[str, Component],
         publish.finish()
 
     recorded = _recorded(entry, references)
+    split = _split(entry)
     notes = entry.text("notes", "")
     tags = entry.text_list("tags")
     entry.finish()
@@ -614,8 +615,24 @@ def _load_pair(entry: _Entry, components: Mapping[str, Component],
         id=pid, component1=first, component2=second, model=model, model_kind=kind,
         published_parameters=published, T_min_K=T_min, T_max_K=T_max, source=source,
         quality=quality, isobars_Pa=isobars, isotherms_K=isotherms, recorded=recorded,
-        notes=notes, file=entry.file, tags=tags,
+        notes=notes, file=entry.file, tags=tags, split_x1=split,
     )
+
+
+def _split(entry: _Entry) -> tuple[float, float, float] | None:
+    block = entry.child("split", None)
+    if block is None:
+        return None
+    values = tuple(block.number(k) for k in ("distillate_x1", "bottoms_x1", "feed_x1"))
+    block.finish()
+    if not all(0.0 < v < 1.0 for v in values):
+        entry.fail("split", "mole fractions strictly between 0 and 1", list(values))
+        return None
+    D, B, F = values
+    if not (min(D, B) < F < max(D, B)):
+        entry.fail("split.feed_x1", "a feed between the bottoms and the distillate", F)
+        return None
+    return D, B, F
 
 
 def _quantity_list(entry: _Entry, name: str, dimension: str, default: list[float]

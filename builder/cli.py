@@ -17,7 +17,7 @@ from collections.abc import Sequence
 from pathlib import Path
 from typing import Any
 
-from . import point
+from . import point, report
 from .catalogue import DEFAULT_CATALOGUE, Catalogue, load_catalogue
 from .errors import AtlasError
 from .units import UnitError, format_pressure, format_temperature, parse_quantity
@@ -65,14 +65,22 @@ def _parser() -> argparse.ArgumentParser:
     calc = commands.add_parser("calc", help="bubble or dew point of a catalogued pair",
                                description="Bubble or dew point of a catalogued pair. "
                                "Compositions refer to the first named component.")
-    calc.add_argument("kind", choices=list(point.POINT_KINDS),
-                      help="bubble-t / dew-t at a pressure, bubble-p / dew-p at a temperature")
+    calc.add_argument("kind", choices=[*point.POINT_KINDS, *report.ANALYSES],
+                      help="bubble-t / dew-t at a pressure, bubble-p / dew-p at a "
+                      "temperature; azeotrope, volatility (at --P or --T) and quicklook "
+                      "(at --P)")
     calc.add_argument("first", help="component 1: id, name, synonym or CAS number")
     calc.add_argument("second", help="component 2")
     calc.add_argument("--x", type=_fraction, help="liquid fraction of component 1 (bubble points)")
     calc.add_argument("--y", type=_fraction, help="vapour fraction of component 1 (dew points)")
     calc.add_argument("--T", type=_temperature, help="temperature with unit: 351.4K, 78C, 172F")
     calc.add_argument("--P", type=_pressure, help="pressure with unit: 101.325kPa, 1atm, 760mmHg")
+    calc.add_argument("--distillate", type=_fraction,
+                      help="quicklook: distillate mole fraction of component 1")
+    calc.add_argument("--bottoms", type=_fraction,
+                      help="quicklook: bottoms mole fraction of component 1")
+    calc.add_argument("--feed", type=_fraction,
+                      help="quicklook: saturated-liquid feed mole fraction of component 1")
     calc.add_argument("--mass", action="store_true",
                       help="the fraction given is a mass fraction (default: mole fraction)")
     calc.add_argument("--json", action="store_true", help="print one JSON object")
@@ -83,6 +91,8 @@ def _parser() -> argparse.ArgumentParser:
 
 
 def _calc(args: argparse.Namespace, catalogue: Catalogue) -> int:
+    if args.kind in report.ANALYSES:
+        return report.run(args, catalogue)
     bubble = args.kind.startswith("bubble")
     given, other = ("x", "y") if bubble else ("y", "x")
     composition = getattr(args, given)
@@ -174,6 +184,8 @@ def main(argv: Sequence[str] | None = None) -> int:
     except (AtlasError, ValueError) as error:
         print(f"atlas: error: {error}", file=sys.stderr)
         return 2
+    except BrokenPipeError:  # output piped into head or similar
+        return 0
     parser.error(f"unknown command {args.command!r}")
     return 2  # pragma: no cover - parser.error exits
 

@@ -158,3 +158,6 @@ class PairRecord:
     notes: str = ""
     file: str = ""
     tags: tuple[str, ...] = field(default=())
+    #: Optional split for the distillation quick look: mole fractions of component 1 in
+    #: distillate, bottoms and a saturated-liquid feed.  None: 95/5 % of the lighter one.
+    split_x1: tuple[float, float, float] | None = None

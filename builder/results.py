@@ -9,20 +9,24 @@ thermodynamics themselves.
 
 from __future__ import annotations
 
-from dataclasses import dataclass, field
+from dataclasses import dataclass, field, replace
 
 import numpy as np
 from numpy.typing import NDArray
 
 from . import curves, stability
-from . import equilibrium as eq
-from .azeotropes import KIND_ISOBAR, KIND_ISOTHERM, Azeotrope, find_azeotropes, search_grid
+from .activity import Swapped
+from .analysis import AzeotropeTrace, analyse, trace_azeotrope
+from .azeotropes import Azeotrope
 from .catalogue import Catalogue
+from .checks import Check, check_pair
+from .distillation import QuickLook, Split, quick_look
 from .point import system_for
 from .records import Component, PairRecord
 from .volatility import Volatility, volatility
 
-__all__ = ["ConditionResult", "PairResults", "compute_atlas", "compute_pair"]
+__all__ = ["ConditionResult", "PairResults", "compute_atlas", "compute_condition", "compute_pair",
+           "swapped_pair"]
 
 ATMOSPHERIC_PA = 101325.0
 
@@ -42,6 +46,7 @@ class ConditionResult:
     warnings: tuple[str, ...] = ()
     liquid_stable: NDArray[np.bool_] | None = None  # per point, tangent-plane test
     three_phase: stability.ThreePhase | None = None
+    quicklook: QuickLook | None = None  # isobars only
 
     @property
     def label(self) -> str:
@@ -67,6 +72,12 @@ class PairResults:
     isobars: tuple[ConditionResult, ...]
     isotherms: tuple[ConditionResult, ...]
     warnings: tuple[str, ...] = field(default=())
+    trace: AzeotropeTrace | None = None  # the 1-atm azeotrope followed against pressure
+    checks: tuple[Check, ...] = ()
+
+    @property
+    def failed_checks(self) -> tuple[Check, ...]:
+        return tuple(c for c in self.checks if not c.passed)
 
     @property
     def conditions(self) -> tuple[ConditionResult, ...]:
@@ -89,6 +100,18 @@ def _extrapolated(pair: PairRecord, c1: Component, c2: Component,
     return np.asarray(outside, dtype=bool)
 
 
+def _light_component(c1: Component, c2: Component, P_Pa: float) -> int:
+    T1 = float(c1.vapour_pressure.temperature_K(P_Pa))
+    T2 = float(c2.vapour_pressure.temperature_K(P_Pa))
+    return 1 if T1 <= T2 else 2
+
+
+def _default_split(pair: PairRecord, light: int) -> Split:
+    if pair.split_x1 is not None:
+        return Split(*pair.split_x1)
+    return Split(0.95, 0.05, 0.5) if light == 1 else Split(0.05, 0.95, 0.5)
+
+
 def _condition(catalogue: Catalogue, pair: PairRecord, kind: str, value: float
                ) -> ConditionResult:
     system = system_for(pair, catalogue)
@@ -96,34 +119,12 @@ def _condition(catalogue: Catalogue, pair: PairRecord, kind: str, value: float
     c2 = catalogue.components[pair.component2]
     isobar = kind == "isobar"
     curve = curves.isobar(system, value) if isobar else curves.isotherm(system, value)
-    warnings: list[str] = []
-    liquid_stable = stability.stable(pair.model, curve.x1, curve.T_K)
-    three_phase = None
-    inside_gap = ~liquid_stable
-    if not liquid_stable.all():
-        if isobar:
-            guess = float(np.min(curve.T_K[~liquid_stable & curve.converged]))
-            three_phase = stability.three_phase_isobar(system, value, guess)
-        else:
-            three_phase = stability.three_phase_isotherm(system, value)
-        if three_phase is None:
-            warnings.append("the model predicts two liquids here but the three-phase point "
-                            "could not be located; the curve inside that region is not drawn")
-        else:
-            inside_gap = (curve.x1 > three_phase.x1_a) & (curve.x1 < three_phase.x1_b)
-            inside_gap |= ~liquid_stable
-    search = find_azeotropes(system, P_Pa=value if isobar else None,
-                             T_K=None if isobar else value,
-                             exclude=None if liquid_stable.all() else _search_exclusion(
-                                 system, pair, value, isobar, three_phase))
-    found = list(search.azeotropes)
-    if three_phase is not None and three_phase.heterogeneous_azeotrope:
-        found.append(Azeotrope(
-            x1=three_phase.y1, T_K=three_phase.T_K, P_Pa=three_phase.P_Pa,
-            kind=(KIND_ISOBAR if isobar else KIND_ISOTHERM)[True], heterogeneous=True,
-            liquid_x1=(three_phase.x1_a, three_phase.x1_b)))
-        found.sort(key=lambda a: a.x1)
-    drawable = curve.converged & ~inside_gap
+    phases = analyse(system, pair.model, isobar, value, curve)
+    warnings = list(phases.warnings)
+    found = phases.azeotropes
+    three_phase = phases.three_phase
+    liquid_stable = phases.liquid_stable
+    drawable = curve.converged & ~phases.inside_gap
     extrapolated = _extrapolated(pair, c1, c2, curve.T_K)
     failed = int((~curve.converged).sum())
     if failed:
@@ -138,38 +139,61 @@ def _condition(catalogue: Catalogue, pair: PairRecord, kind: str, value: float
             warnings.append(f"{component.name} is above its critical temperature "
                             f"({component.critical_temperature_K:.1f} K) on part of this "
                             "curve: the modified Raoult's law does not apply there")
-    if not search.complete:
-        warnings.append("the azeotrope search could not cover the whole composition range")
     vol = volatility(system, curve.x1, curve.alpha12, drawable,
                      P_Pa=value if isobar else None, T_K=None if isobar else value,
                      has_azeotrope=bool(found))
+    look = None
+    if isobar:
+        light = _light_component(c1, c2, value)
+        look = quick_look(system, value, found, three_phase, _default_split(pair, light), light)
     return ConditionResult(kind=kind, condition=value, curve=curve, drawable=drawable,
                            extrapolated=extrapolated, azeotropes=tuple(found),
-                           azeotrope_search_complete=search.complete, volatility=vol,
+                           azeotrope_search_complete=phases.complete, volatility=vol,
                            warnings=tuple(warnings), liquid_stable=liquid_stable,
-                           three_phase=three_phase)
-
-
-def _search_exclusion(system: eq.BinarySystem, pair: PairRecord, value: float, isobar: bool,
-                      three_phase: stability.ThreePhase | None) -> NDArray[np.bool_]:
-    """Grid points of the azeotrope search that lie in the two-liquid region."""
-    grid = search_grid()
-    if three_phase is not None:
-        return np.asarray((grid > three_phase.x1_a) & (grid < three_phase.x1_b))
-    result = (eq.bubble_temperature(system, grid, value) if isobar
-              else eq.bubble_pressure(system, grid, value))
-    return ~stability.stable(pair.model, grid, result.T_K)
+                           three_phase=three_phase, quicklook=look)
 
 
 def compute_pair(catalogue: Catalogue, pair: PairRecord) -> PairResults:
-    """Compute every published condition of ``pair``."""
-    return PairResults(
+    """Compute every published condition of ``pair``, the azeotrope's movement with
+    pressure and the reference checks."""
+    isobars = tuple(_condition(catalogue, pair, "isobar", P) for P in pair.isobars_Pa)
+    isotherms = tuple(_condition(catalogue, pair, "isotherm", T) for T in pair.isotherms_K)
+    trace = None
+    reference = next((c for c in isobars if abs(c.condition - ATMOSPHERIC_PA) < 1.0),
+                     isobars[0] if isobars else None)
+    if reference is not None and reference.azeotropes:
+        trace = trace_azeotrope(system_for(pair, catalogue), pair.model,
+                                reference.azeotropes[0], (pair.T_min_K, pair.T_max_K))
+    partial = PairResults(
         pair=pair,
         component1=catalogue.components[pair.component1],
         component2=catalogue.components[pair.component2],
-        isobars=tuple(_condition(catalogue, pair, "isobar", P) for P in pair.isobars_Pa),
-        isotherms=tuple(_condition(catalogue, pair, "isotherm", T) for T in pair.isotherms_K),
+        isobars=isobars, isotherms=isotherms, trace=trace,
     )
+    return replace(partial, checks=check_pair(partial))
+
+
+def swapped_pair(pair: PairRecord) -> PairRecord:
+    """The same pair with its components in the other order (1 <-> 2)."""
+    split = pair.split_x1
+    return replace(pair, component1=pair.component2, component2=pair.component1,
+                   model=Swapped(pair.model),
+                   split_x1=None if split is None else (1 - split[0], 1 - split[1],
+                                                        1 - split[2]))
+
+
+def compute_condition(catalogue: Catalogue, pair: PairRecord, kind: str, value: float,
+                      swapped: bool = False,
+                      split_x1: tuple[float, float, float] | None = None) -> ConditionResult:
+    """One isobar (``value`` in Pa) or isotherm (K), optionally in the reversed order and
+    with a quick-look split (distillate, bottoms, feed; fractions of the first component
+    in the order used)."""
+    if kind not in ("isobar", "isotherm"):
+        raise ValueError(f"kind must be 'isobar' or 'isotherm', found {kind!r}")
+    record = swapped_pair(pair) if swapped else pair
+    if split_x1 is not None:
+        record = replace(record, split_x1=split_x1)
+    return _condition(catalogue, record, kind, value)
 
 
 def compute_atlas(catalogue: Catalogue) -> dict[str, PairResults]:

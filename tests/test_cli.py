@@ -120,3 +120,38 @@ def test_module_entry_point() -> None:
     done = subprocess.run([sys.executable, "-m", "builder", "list"], capture_output=True,
                           text=True, check=True)
     assert "ethanol--water" in done.stdout
+
+
+def test_azeotrope_json_contract(capsys: pytest.CaptureFixture[str]) -> None:
+    """Reference: handbook azeotrope of ethanol-water at 1 atm, 78.2 °C and x = 0.894
+    (CRC Handbook; from memory), to screening tolerance."""
+    code, out, _ = _run(capsys, "calc", "azeotrope", "ethanol", "water", "--P", "1atm",
+                        "--json")
+    data = json.loads(out)
+    assert code == 0 and data["search_complete"] is True
+    (az,) = data["azeotropes"]
+    assert set(az) >= {"x1", "T_K", "P_Pa", "kind", "heterogeneous"}
+    assert az["kind"] == "minimum-boiling" and az["heterogeneous"] is False
+    assert az["T_K"] == pytest.approx(351.35, abs=1.0)
+    assert az["x1"] == pytest.approx(0.894, abs=0.03)
+    # in the other order the composition is mirrored
+    _, out, _ = _run(capsys, "calc", "azeotrope", "water", "ethanol", "--P", "1atm", "--json")
+    assert json.loads(out)["azeotropes"][0]["x1"] == pytest.approx(1 - az["x1"], abs=1e-9)
+
+
+def test_empty_azeotrope_list_means_searched(capsys: pytest.CaptureFixture[str]) -> None:
+    _, out, _ = _run(capsys, "calc", "azeotrope", "benzene", "toluene", "--P", "1atm", "--json")
+    data = json.loads(out)
+    assert data["azeotropes"] == [] and data["search_complete"] is True
+
+
+def test_volatility_and_quicklook_commands(capsys: pytest.CaptureFixture[str]) -> None:
+    _, out, _ = _run(capsys, "calc", "volatility", "benzene", "toluene", "--P", "1atm",
+                     "--json")
+    data = json.loads(out)
+    assert len(data["table"]) == 21 and data["grade"] == "easy"
+    assert data["table"][0]["alpha12"] == pytest.approx(data["alpha12_infinite_dilution"][0])
+    code, out, _ = _run(capsys, "calc", "quicklook", "benzene", "toluene", "--P", "1atm")
+    assert code == 0 and "minimum theoretical stages" in out and "Fenske" in out
+    code, _, err = _run(capsys, "calc", "quicklook", "benzene", "toluene", "--T", "90C")
+    assert code == 2 and "isobar" in err

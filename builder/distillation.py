@@ -1,0 +1,246 @@
+"""A first look at separating a pair by plain distillation on one isobar.
+
+For a split between a bottoms and a distillate composition, both inside one
+azeotrope-free stretch of composition, on the actual equilibrium curve
+``y*(x)`` at the pressure:
+
+* **Minimum stages** (total reflux): the operating line is ``y = x``; starting
+  from the bottoms liquid (the reboiler is the first stage) each stage takes
+  ``y = y*(x)`` and passes it up as the next liquid, until the distillate is
+  reached.  The last stage is counted fractionally by interpolating the
+  log-odds ``ln(x/(1-x))``, which makes the count equal to Fenske's equation
+  exactly when α is constant.  Fenske's estimate with the geometric mean of
+  the top and bottom volatilities is given beside it (M. R. Fenske, Ind. Eng.
+  Chem. 24 (1932) 482).
+* **Minimum reflux** for a saturated-liquid feed (q = 1): the smallest
+  rectifying ``L/V`` for which neither operating line crosses the equilibrium
+  curve.  Usually the pinch is at the feed; for curves that bend (typical near
+  an azeotrope or with strong non-ideality) it is a tangent pinch inside a
+  section, which is reported as such.  For constant α the result equals
+  Underwood's ``R_min = [x_D/z - α (1 - x_D)/(1 - z)] / (α - 1)`` (A. J. V.
+  Underwood, Chem. Eng. Prog. 44 (1948) 603).
+
+Compositions inside this module are of the component that goes overhead in
+that stretch ("top component"); results are reported in mole fractions of
+component 1.  A split that would cross an azeotrope is not computed: the
+reachable limit is reported instead.
+"""
+
+from __future__ import annotations
+
+import itertools
+import math
+from collections.abc import Callable
+from dataclasses import dataclass
+
+import numpy as np
+from numpy.typing import NDArray
+from scipy.optimize import minimize_scalar
+
+from . import equilibrium as eq
+from .azeotropes import Azeotrope
+from .stability import ThreePhase
+
+__all__ = ["QuickLook", "Split", "fenske_stages", "quick_look", "total_reflux_stages",
+           "underwood_minimum_reflux"]
+
+FloatArray = NDArray[np.float64]
+Equilibrium = Callable[[FloatArray], FloatArray]
+
+#: Stage counting stops here: a split needing more stages is reported as such.
+MAX_STAGES = 500
+
+
+@dataclass(frozen=True)
+class Split:
+    """Requested compositions of component 1 in distillate, bottoms and feed."""
+
+    distillate_x1: float
+    bottoms_x1: float
+    feed_x1: float
+
+
+@dataclass(frozen=True)
+class QuickLook:
+    """Minimum stages and minimum reflux of one split on one isobar, or why not."""
+
+    P_Pa: float
+    requested: Split
+    split: Split | None  # the split computed (requested, or the reachable side)
+    top_component: int  # 1 or 2: which component goes overhead
+    limited_by: str  # empty, or why the requested split was not computed as given
+    stages_min: float | None = None  # theoretical stages incl. reboiler, total reflux
+    fenske_stages: float | None = None
+    alpha_top: float | None = None
+    alpha_bottom: float | None = None
+    reflux_min: float | None = None
+    pinch: str = ""  # "feed", "tangent (rectifying section)", "tangent (stripping section)"
+    pinch_x1: float | None = None
+    reason: str = ""  # why a number is missing, in plain words
+
+
+def fenske_stages(x_top: float, x_bottom: float, alpha: float) -> float:
+    """Fenske's minimum number of stages (including the reboiler) for constant α.
+
+    >>> round(fenske_stages(0.95, 0.05, 2.5), 4)
+    6.4269
+    """
+    return math.log((x_top / (1 - x_top)) * ((1 - x_bottom) / x_bottom)) / math.log(alpha)
+
+
+def underwood_minimum_reflux(x_top: float, feed: float, alpha: float) -> float:
+    """Underwood's minimum reflux ratio for a saturated-liquid feed and constant α.
+
+    >>> round(underwood_minimum_reflux(0.95, 0.5, 2.5), 4)
+    1.1
+    """
+    return (x_top / feed - alpha * (1 - x_top) / (1 - feed)) / (alpha - 1)
+
+
+def _log_odds(u: float) -> float:
+    return math.log(u / (1.0 - u))
+
+
+def total_reflux_stages(y_star: Equilibrium, x_bottom: float, x_top: float
+                        ) -> float | None:
+    """Stages (reboiler included) from ``x_bottom`` to ``x_top`` at total reflux.
+
+    ``y_star`` maps liquid to vapour compositions of the top component.  Returns
+    None when the count exceeds :data:`MAX_STAGES` or a stage makes no progress.
+    """
+    x = x_bottom
+    target = _log_odds(x_top)
+    for stage in range(MAX_STAGES):
+        y = float(y_star(np.array([x]))[0])
+        if not (0.0 < y < 1.0) or y <= x:
+            return None
+        if y >= x_top:
+            # fraction of this stage needed, in log-odds (exact for constant α)
+            return stage + (target - _log_odds(x)) / (_log_odds(y) - _log_odds(x))
+        x = y
+    return None
+
+
+def _minimum_reflux(y_star: Equilibrium, x_bottom: float, feed: float, x_top: float
+                    ) -> tuple[float, str, float]:
+    """(R_min, pinch kind, pinch liquid composition) for a saturated-liquid feed."""
+    grid_r = np.linspace(feed, x_top, 801)[:-1]
+    grid_s = np.linspace(x_bottom, feed, 801)[1:]
+
+    def rect_slope(x: float) -> float:  # L/V the rectifying line needs at liquid x
+        return float((x_top - y_star(np.array([x]))[0]) / (x_top - x))
+
+    def strip_limit(x: float) -> float:  # highest y at the feed allowed by liquid x
+        y = float(y_star(np.array([x]))[0])
+        return x_bottom + (y - x_bottom) * (feed - x_bottom) / (x - x_bottom)
+
+    slopes = (x_top - y_star(grid_r)) / (x_top - grid_r)
+    k = int(np.argmax(slopes))
+    LV_rect, x_rect = float(slopes[k]), float(grid_r[k])
+    if 0 < k < grid_r.size - 1:
+        best = minimize_scalar(lambda x: -rect_slope(x), bounds=(grid_r[k - 1], grid_r[k + 1]),
+                               method="bounded", options={"xatol": 1e-12})
+        LV_rect, x_rect = -float(best.fun), float(best.x)
+    limits = x_bottom + (y_star(grid_s) - x_bottom) * (feed - x_bottom) / (grid_s - x_bottom)
+    j = int(np.argmin(limits))
+    y_q, x_strip = float(limits[j]), float(grid_s[j])
+    if 0 < j < grid_s.size - 1:
+        best = minimize_scalar(strip_limit, bounds=(grid_s[j - 1], grid_s[j + 1]),
+                               method="bounded", options={"xatol": 1e-12})
+        y_q, x_strip = float(best.fun), float(best.x)
+    LV_strip = (x_top - y_q) / (x_top - feed)
+    if LV_strip > LV_rect + 1e-12:
+        LV, pinch, x_pinch = LV_strip, "tangent (stripping section)", x_strip
+    else:
+        LV, x_pinch = LV_rect, x_rect
+        pinch = "feed" if abs(x_rect - feed) < 1e-6 else "tangent (rectifying section)"
+    if abs(x_pinch - feed) < 1e-6:
+        pinch = "feed"
+    if LV <= 0.0:
+        # The feed's equilibrium vapour is already at least as rich as the distillate.
+        return 0.0, "none (the feed vapour already meets the distillate)", x_pinch
+    return LV / (1.0 - LV), pinch, x_pinch
+
+
+def _stretches(azeotropes: tuple[Azeotrope, ...]) -> list[tuple[float, float]]:
+    edges = [0.0, *sorted(a.x1 for a in azeotropes), 1.0]
+    return list(itertools.pairwise(edges))
+
+
+def quick_look(system: eq.BinarySystem, P_Pa: float, azeotropes: tuple[Azeotrope, ...],
+               three_phase: ThreePhase | None, requested: Split,
+               light_component: int) -> QuickLook:
+    """Minimum stages and minimum reflux on the isobar ``P_Pa`` for ``requested``.
+
+    ``light_component`` (1 or 2) is the lower-boiling pure component; the
+    default split is stated for it.  When the requested split crosses an
+    azeotrope, the split is moved to the reachable side: the azeotrope-free
+    stretch holding the feed, 5 % of its width in from either end.
+    """
+
+    def y1_of_x1(x1: FloatArray) -> FloatArray:
+        result = eq.bubble_temperature(system, x1, P_Pa)
+        y = np.where(result.converged, result.y1, np.nan)
+        if three_phase is not None:
+            inside = (x1 > three_phase.x1_a) & (x1 < three_phase.x1_b)
+            y = np.where(inside, three_phase.y1, y)
+        return np.asarray(y, dtype=float)
+
+    low, high = sorted((requested.bottoms_x1, requested.distillate_x1))
+    crossing = [a for a in azeotropes if low < a.x1 < high]
+    limited_by = ""
+    split = requested
+    if crossing:
+        stretch = next(((a, b) for a, b in _stretches(azeotropes) if a <= requested.feed_x1 <= b),
+                       _stretches(azeotropes)[0])
+        a, b = stretch
+        width = b - a
+        names = ", ".join(f"x1 = {az.x1:.3f}" for az in crossing)
+        limited_by = (f"the requested split crosses the azeotrope at {names}: plain "
+                      f"distillation of a feed at x1 = {requested.feed_x1:.2f} is confined "
+                      f"to {a:.3f} < x1 < {b:.3f}")
+        feed = min(max(requested.feed_x1, a + 0.1 * width), b - 0.1 * width)
+        split = Split(distillate_x1=float("nan"), bottoms_x1=float("nan"), feed_x1=feed)
+        low, high = a + 0.05 * width, b - 0.05 * width
+    # Which end of the stretch goes overhead: where the vapour is richer in it.
+    mid = np.array([0.5 * (low + high)])
+    top_is_1 = bool(y1_of_x1(mid)[0] > mid[0])
+    if crossing:
+        split = Split(distillate_x1=high if top_is_1 else low,
+                      bottoms_x1=low if top_is_1 else high, feed_x1=split.feed_x1)
+    top = 1 if top_is_1 else 2
+
+    def to_u(x1: float) -> float:
+        return x1 if top_is_1 else 1.0 - x1
+
+    def y_star(u: FloatArray) -> FloatArray:
+        x1 = u if top_is_1 else 1.0 - u
+        y1 = y1_of_x1(np.asarray(x1, dtype=float))
+        return y1 if top_is_1 else 1.0 - y1
+
+    u_top, u_bottom, u_feed = to_u(split.distillate_x1), to_u(split.bottoms_x1), to_u(
+        split.feed_x1)
+    base = QuickLook(P_Pa=P_Pa, requested=requested, split=split, top_component=top,
+                     limited_by=limited_by)
+    if not (u_bottom < u_feed < u_top):
+        return _replace(base, reason="the feed must lie between bottoms and distillate, and "
+                        "the distillate must be richer in the component that goes overhead "
+                        f"(component {top} here)")
+    y_top = float(y_star(np.array([u_top]))[0])
+    y_bottom = float(y_star(np.array([u_bottom]))[0])
+    alpha_top = (y_top / (1 - y_top)) / (u_top / (1 - u_top))
+    alpha_bottom = (y_bottom / (1 - y_bottom)) / (u_bottom / (1 - u_bottom))
+    fenske = fenske_stages(u_top, u_bottom, math.sqrt(alpha_top * alpha_bottom))
+    stages = total_reflux_stages(y_star, u_bottom, u_top)
+    R_min, pinch, u_pinch = _minimum_reflux(y_star, u_bottom, u_feed, u_top)
+    reason = "" if stages is not None else (
+        f"more than {MAX_STAGES} stages at total reflux: not practical")
+    return _replace(base, stages_min=stages, fenske_stages=fenske, alpha_top=alpha_top,
+                    alpha_bottom=alpha_bottom, reflux_min=R_min, pinch=pinch,
+                    pinch_x1=u_pinch if top_is_1 else 1.0 - u_pinch, reason=reason)
+
+
+def _replace(base: QuickLook, **changes: object) -> QuickLook:
+    from dataclasses import replace
+
+    return replace(base, **changes)  # type: ignore[arg-type]
