@@ -85,6 +85,15 @@ def _parser() -> argparse.ArgumentParser:
                       help="the fraction given is a mass fraction (default: mole fraction)")
     calc.add_argument("--json", action="store_true", help="print one JSON object")
 
+    check = commands.add_parser(
+        "check", help="validate the catalogue and run its reference checks",
+        description="Validate the whole catalogue (or the named pair files) and run the "
+        "reference checks; exit status 1 when any check fails.")
+    check.add_argument("files", nargs="*", type=Path,
+                       help="pair files (binaries/*.yaml) to check; default: all pairs")
+    check.add_argument("--report", type=Path,
+                       help="also write the check results and sources as Markdown here")
+
     listing = commands.add_parser("list", help="the catalogued components and pairs")
     listing.add_argument("--json", action="store_true", help="print JSON")
     return parser
@@ -152,6 +161,26 @@ def _point_table(answer: point.PointAnswer, show_mass: bool = False) -> str:
     return "\n".join(lines)
 
 
+def _check(args: argparse.Namespace) -> int:
+    from . import catalogue_check
+
+    only = [path.stem for path in args.files]
+    catalogue = load_catalogue(args.catalogue, only=only)
+    print(f"catalogue {args.catalogue}: {len(catalogue.references)} references, "
+          f"{len(catalogue.components)} components, {len(catalogue.pairs)} pairs: loaded")
+    run = catalogue_check.run_checks(catalogue)
+    failures = run.failures
+    for line in failures:
+        print(f"FAIL {line}")
+    for line in catalogue_check.summary_lines(run):
+        print(line)
+    if args.report:
+        args.report.parent.mkdir(parents=True, exist_ok=True)
+        args.report.write_text(catalogue_check.markdown_report(catalogue, run), encoding="utf-8")
+        print(f"report written to {args.report}")
+    return 1 if failures else 0
+
+
 def _list(args: argparse.Namespace, catalogue: Catalogue) -> int:
     if args.json:
         data: dict[str, Any] = {
@@ -176,6 +205,8 @@ def main(argv: Sequence[str] | None = None) -> int:
     parser = _parser()
     args = parser.parse_args(argv)
     try:
+        if args.command == "check":
+            return _check(args)
         catalogue = load_catalogue(args.catalogue)
         if args.command == "calc":
             return _calc(args, catalogue)

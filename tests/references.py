@@ -16,16 +16,9 @@ from builder.records import PairRecord
 
 warnings.filterwarnings("ignore")
 
-#: CoolProp fluids with a reference (Helmholtz) equation of state, by catalogue id.
-COOLPROP_HEOS = {
-    "water": "Water", "methanol": "Methanol", "ethanol": "Ethanol", "acetone": "Acetone",
-    "benzene": "Benzene", "toluene": "Toluene", "ethylbenzene": "EthylBenzene",
-    "o-xylene": "o-Xylene", "m-xylene": "m-Xylene", "p-xylene": "p-Xylene",
-    "n-pentane": "n-Pentane", "n-hexane": "n-Hexane", "n-heptane": "n-Heptane",
-    "n-octane": "n-Octane", "cyclohexane": "CycloHexane", "diethyl-ether": "DiethylEther",
-    "propane": "n-Propane", "n-butane": "n-Butane", "isobutane": "IsoButane",
-    "propylene": "Propylene", "1-2-dichloroethane": "Dichloroethane",
-}
+# CoolProp fluids with a reference equation of state, by catalogue id (shared with
+# ``atlas check``).
+from builder.catalogue_check import COOLPROP_HEOS  # noqa: E402
 
 
 def coolprop_psat_Pa(component_id: str, T_K: np.ndarray) -> np.ndarray:

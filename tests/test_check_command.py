@@ -1,0 +1,43 @@
+"""``atlas check``: clean on the shipped catalogue, failing with file/entry/check on a bad set.
+
+References: the recorded azeotrope tables in the pair files (CRC Handbook, from memory) and
+CoolProp / the chemicals package, as run by ``atlas check`` itself.
+"""
+
+from __future__ import annotations
+
+import shutil
+from pathlib import Path
+
+import pytest
+
+from builder.catalogue import DEFAULT_CATALOGUE
+from builder.cli import main
+
+
+def test_shipped_catalogue_checks_clean(capsys: pytest.CaptureFixture[str],
+                                        tmp_path: Path) -> None:
+    report = tmp_path / "checks.md"
+    code = main(["check", "--report", str(report)])
+    out = capsys.readouterr().out
+    assert code == 0, out
+    assert "FAIL" not in out
+    text = report.read_text(encoding="utf-8")
+    assert "## Azeotropes at 101.325 kPa against published tables" in text
+    assert "## Sources" in text and "poling-2001" in text
+
+
+def test_a_wrong_parameter_set_fails_the_check(capsys: pytest.CaptureFixture[str],
+                                               tmp_path: Path) -> None:
+    root = tmp_path / "pairs"
+    shutil.copytree(DEFAULT_CATALOGUE, root)
+    pair = root / "binaries" / "ethanol--water.yaml"
+    # A mistyped parameter: the azeotrope moves far from the handbook value.
+    pair.write_text(pair.read_text(encoding="utf-8").replace("g21: 1241.7396 cal/mol",
+                                                             "g21: 641.7396 cal/mol"),
+                    encoding="utf-8")
+    code = main(["--catalogue", str(root), "check", str(pair)])
+    out = capsys.readouterr().out
+    assert code == 1
+    assert "FAIL pairs/binaries/ethanol--water.yaml: entry 'ethanol--water'" in out
+    assert "azeotrope at 101.325 kPa" in out
