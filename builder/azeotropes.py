@@ -130,7 +130,10 @@ def find_azeotropes(system: eq.BinarySystem, *, P_Pa: float | None = None,
     idx = np.flatnonzero(usable)
     # Sign changes between consecutive usable points; exact zeros at interior points.
     fa, fb = f[idx[:-1]], f[idx[1:]]
-    change = np.flatnonzero(np.sign(fa) * np.sign(fb) < 0)
+    # Only neighbours on the grid bracket a root: a sign change across an excluded stretch
+    # (a two-liquid region) is not a homogeneous azeotrope.
+    adjacent = idx[1:] == idx[:-1] + 1
+    change = np.flatnonzero((np.sign(fa) * np.sign(fb) < 0) & adjacent)
     lo, hi = x[idx[change]], x[idx[change + 1]]
     falling = fa[change] > 0  # α from above 1 to below 1 with increasing x1
     exact = [i for i in idx if f[i] == 0.0 and 0.0 < x[i] < 1.0]

@@ -10,6 +10,7 @@ import pytest
 from builder.catalogue import Catalogue, load_catalogue
 from builder.equilibrium import BinarySystem
 from builder.point import system_for
+from builder.results import PairResults, compute_atlas
 
 # The reference libraries print deprecation chatter on import; it is not ours.
 warnings.filterwarnings("ignore", category=DeprecationWarning)
@@ -19,6 +20,12 @@ os.environ.setdefault("MPLBACKEND", "Agg")
 @pytest.fixture(scope="session")
 def catalogue() -> Catalogue:
     return load_catalogue()
+
+
+@pytest.fixture(scope="session")
+def atlas_results(catalogue: Catalogue) -> dict[str, PairResults]:
+    """Every pair computed once per test session (read-only records)."""
+    return compute_atlas(catalogue)
 
 
 @pytest.fixture(scope="session")
