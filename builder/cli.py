@@ -20,6 +20,7 @@ from typing import Any
 from . import point, report
 from .catalogue import DEFAULT_CATALOGUE, Catalogue, load_catalogue
 from .errors import AtlasError
+from .site import commands as site_commands
 from .units import UnitError, format_pressure, format_temperature, parse_quantity
 
 __all__ = ["main"]
@@ -81,6 +82,9 @@ def _parser() -> argparse.ArgumentParser:
                       help="quicklook: bottoms mole fraction of component 1")
     calc.add_argument("--feed", type=_fraction,
                       help="quicklook: saturated-liquid feed mole fraction of component 1")
+    calc.add_argument("--trace", action="store_true",
+                      help="azeotrope: also follow it from 10 kPa to 1 MPa (clipped to the "
+                      "correlations' ranges)")
     calc.add_argument("--mass", action="store_true",
                       help="the fraction given is a mass fraction (default: mole fraction)")
     calc.add_argument("--json", action="store_true", help="print one JSON object")
@@ -96,6 +100,7 @@ def _parser() -> argparse.ArgumentParser:
 
     listing = commands.add_parser("list", help="the catalogued components and pairs")
     listing.add_argument("--json", action="store_true", help="print JSON")
+    site_commands.add_parsers(commands)
     return parser
 
 
@@ -205,6 +210,8 @@ def main(argv: Sequence[str] | None = None) -> int:
     parser = _parser()
     args = parser.parse_args(argv)
     try:
+        if args.command in site_commands.COMMANDS:
+            return site_commands.run(args)
         if args.command == "check":
             return _check(args)
         catalogue = load_catalogue(args.catalogue)

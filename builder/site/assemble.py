@@ -1,0 +1,148 @@
+"""The last stage: write the generated sources and let mkdocs assemble the HTML site.
+
+This is the only module that knows about mkdocs (1.6, with the Material
+theme); another static-site engine would replace this module alone.  It
+writes the :class:`~.content.SiteContent` and the static assets of
+``site_templates/assets`` into a source folder, derives ``mkdocs.yml`` from
+``site_templates/mkdocs.base.yml`` and runs the mkdocs build in-process.
+Every warning mkdocs or a plugin logs is collected; in strict mode any
+warning fails the build (the privacy plugin warns on each external asset, so
+an external font, script, stylesheet or image fails a strict build).
+
+The output folder is emptied by mkdocs before it writes, so it must be new,
+empty or a site this assembler wrote before (marked by ``.atlas-site``).
+"""
+
+from __future__ import annotations
+
+import html
+import logging
+import os
+import shutil
+from dataclasses import dataclass, field
+from pathlib import Path
+from typing import Any
+
+import yaml
+
+from ..errors import AtlasError
+from . import TEMPLATES
+from .content import SiteContent
+from .settings import SiteSettings
+
+__all__ = ["MARKER", "AssembleError", "AssembleReport", "assemble", "check_output_folder"]
+
+#: File that marks a folder as an atlas site this tool may overwrite.
+MARKER = ".atlas-site"
+#: File that marks a folder of generated sources (``--keep-source``) the same way.
+SOURCE_MARKER = ".atlas-source"
+
+NAV = [{"Pairs": "index.md"}, {"Components": "components/index.md"},
+       {"Methods": "methods.md"}]
+
+
+class AssembleError(AtlasError):
+    """The site could not be assembled (refused output folder, mkdocs failure)."""
+
+
+@dataclass
+class AssembleReport:
+    warnings: list[str] = field(default_factory=list)
+
+
+class _Collect(logging.Handler):
+    def __init__(self) -> None:
+        super().__init__(logging.WARNING)
+        self.messages: list[str] = []
+
+    def emit(self, record: logging.LogRecord) -> None:
+        self.messages.append(f"{record.name}: {record.getMessage()}")
+
+
+def check_output_folder(out_dir: Path) -> None:
+    """Refuse to let the build empty a folder that is not an earlier atlas site."""
+    if not out_dir.exists():
+        return
+    if not out_dir.is_dir():
+        raise AssembleError(f"output {out_dir} exists and is not a folder")
+    if any(out_dir.iterdir()) and not (out_dir / MARKER).is_file():
+        raise AssembleError(f"output folder {out_dir} is not empty and was not written by "
+                            "'atlas build' (no .atlas-site marker): refusing to replace it; "
+                            "choose another folder with --out")
+
+
+def _config(settings: SiteSettings, docs_dir: Path, site_dir: Path) -> dict[str, Any]:
+    base = yaml.safe_load((TEMPLATES / "mkdocs.base.yml").read_text(encoding="utf-8"))
+    config: dict[str, Any] = dict(base)
+    # The theme inserts site_name and site_description as they are: escape them here.
+    config["site_name"] = html.escape(settings.title)
+    config["site_description"] = html.escape(settings.description)
+    owner = f"{html.escape(settings.organisation)}. " if settings.organisation else ""
+    config["copyright"] = (f"{owner}Screening only: design rests on measured data, local "
+                           "codes and licensed engineering practice.")
+    config["docs_dir"] = str(docs_dir)
+    config["site_dir"] = str(site_dir)
+    config["theme"] = dict(config["theme"], custom_dir=str(TEMPLATES / "overrides"))
+    config["nav"] = NAV
+    return config
+
+
+def _write_sources(content: SiteContent, source_dir: Path) -> Path:
+    docs_dir = source_dir / "docs"
+    marker = source_dir / SOURCE_MARKER
+    if docs_dir.exists():
+        if any(docs_dir.iterdir()) and not marker.is_file():
+            raise AssembleError(f"{docs_dir} exists and was not written by 'atlas build': "
+                                "refusing to replace it; choose another source folder")
+        shutil.rmtree(docs_dir)
+    docs_dir.mkdir(parents=True)
+    marker.write_text("Generated sources of 'atlas build'; replaced by the next build.\n",
+                      encoding="utf-8")
+    shutil.copytree(TEMPLATES / "assets", docs_dir / "assets")
+    for path, data in content:
+        target = docs_dir / path
+        target.parent.mkdir(parents=True, exist_ok=True)
+        target.write_bytes(data)
+    return docs_dir
+
+
+def assemble(content: SiteContent, settings: SiteSettings, out_dir: Path, source_dir: Path,
+             strict: bool = False) -> AssembleReport:
+    """Write ``content`` under ``source_dir`` and build the HTML site into ``out_dir``."""
+    out_dir = out_dir.resolve()
+    source_dir = source_dir.resolve()
+    check_output_folder(out_dir)
+    if source_dir == out_dir or out_dir in source_dir.parents or source_dir in out_dir.parents:
+        raise AssembleError("the source folder and the output folder must not contain each "
+                            "other")
+    docs_dir = _write_sources(content, source_dir)
+    config_file = source_dir / "mkdocs.yml"
+    config_file.write_text(yaml.safe_dump(_config(settings, docs_dir, out_dir),
+                                          sort_keys=False, allow_unicode=True),
+                           encoding="utf-8")
+
+    os.environ.setdefault("NO_MKDOCS_2_WARNING", "1")
+    from mkdocs import exceptions as mkdocs_exceptions
+    from mkdocs.commands.build import build
+    from mkdocs.config import load_config
+
+    collector = _Collect()
+    logger = logging.getLogger("mkdocs")
+    logger.addHandler(collector)
+    previous, propagate = logger.level, logger.propagate
+    logger.setLevel(logging.INFO)
+    logger.propagate = False  # reported by the caller, once
+    try:
+        config = load_config(config_file=str(config_file), strict=strict)
+        build(config)
+    except mkdocs_exceptions.MkDocsException as error:
+        details = "; ".join(collector.messages)
+        raise AssembleError(f"mkdocs could not build the site: {error}"
+                            + (f" ({details})" if details else "")) from None
+    finally:
+        logger.removeHandler(collector)
+        logger.setLevel(previous)
+        logger.propagate = propagate
+    (out_dir / MARKER).write_text("Written by 'atlas build'; the next build replaces this "
+                                  "folder.\n", encoding="utf-8")
+    return AssembleReport(warnings=collector.messages)

@@ -1,0 +1,125 @@
+"""Generation: computed results to the site's source files, in memory, engine-independent.
+
+:func:`generate` renders every figure (SVG), download (CSV, JSON) and page
+(Markdown) into a :class:`SiteContent` -- a mapping of site-relative paths to
+bytes -- and copies nothing to disk.  Only when all of it exists does the
+assembler write it (:mod:`.assemble`).  Paths are checked as they are added:
+every part is a safe slug, so no catalogue text can choose where a file goes.
+"""
+
+from __future__ import annotations
+
+import json
+import multiprocessing
+import os
+import re
+from collections.abc import Iterator, Mapping
+from concurrent.futures import ProcessPoolExecutor
+from dataclasses import dataclass, field
+from typing import Any
+
+from ..catalogue import Catalogue
+from ..results import PairResults
+from .context import AtlasView, build_views
+from .data import atlas_json, condition_csvs, pair_json, plain
+from .figures import Figure, component_figure, pair_figures
+from .pages import render_pages
+from .settings import SiteSettings
+from .text import UnsafeName
+
+__all__ = ["SiteContent", "generate"]
+
+#: A site-relative path: slug parts (a pair id may join two slugs by ``--``) and an extension.
+_PATH = re.compile(r"^(?:[a-z0-9]+(?:-{1,2}[a-z0-9]+)*/)*[a-z0-9]+(?:-{1,2}[a-z0-9]+)*"
+                   r"\.(?:md|svg|csv|json)$")
+
+
+@dataclass
+class SiteContent:
+    """The generated source of the site: ``{site-relative path: bytes}``."""
+
+    files: dict[str, bytes] = field(default_factory=dict)
+    stats: dict[str, int] = field(default_factory=dict)
+
+    def add(self, path: str, data: bytes | str) -> None:
+        if not _PATH.match(path) or ".." in path.split("/"):
+            raise UnsafeName(f"refusing to write an unsafe path: {path!r}")
+        if path in self.files:
+            raise UnsafeName(f"two generated files would share the path {path!r}")
+        self.files[path] = data.encode("utf-8") if isinstance(data, str) else data
+        kind = path.rsplit(".", 1)[1]
+        self.stats[kind] = self.stats.get(kind, 0) + 1
+
+    def __iter__(self) -> Iterator[tuple[str, bytes]]:
+        return iter(sorted(self.files.items()))
+
+    def __len__(self) -> int:
+        return len(self.files)
+
+    @property
+    def size(self) -> int:
+        return sum(len(v) for v in self.files.values())
+
+
+# -- figures, in parallel where the machine allows ---------------------------
+_JOBS: dict[str, Any] = {}
+
+
+def _pair_job(pid: str) -> tuple[str, tuple[Figure, ...]]:
+    return pid, pair_figures(_JOBS["atlas"][pid], _JOBS["settings"])
+
+
+def _component_job(cid: str) -> tuple[str, Figure]:
+    return cid, component_figure(_JOBS["catalogue"].components[cid], _JOBS["settings"])
+
+
+def _render_figures(settings: SiteSettings, catalogue: Catalogue,
+                    atlas: Mapping[str, PairResults], workers: int
+                    ) -> tuple[dict[str, tuple[Figure, ...]], dict[str, Figure]]:
+    _JOBS.update(atlas=atlas, settings=settings, catalogue=catalogue)
+    try:
+        pairs, components = sorted(atlas), sorted(catalogue.components)
+        if workers > 1 and "fork" in multiprocessing.get_all_start_methods():
+            # Forked workers share the computed results; nothing is pickled but ids.
+            context = multiprocessing.get_context("fork")
+            with ProcessPoolExecutor(max_workers=workers, mp_context=context) as pool:
+                pair_figs = dict(pool.map(_pair_job, pairs, chunksize=2))
+                comp_figs = dict(pool.map(_component_job, components, chunksize=4))
+        else:
+            pair_figs = dict(map(_pair_job, pairs))
+            comp_figs = dict(map(_component_job, components))
+    finally:
+        _JOBS.clear()
+    return pair_figs, comp_figs
+
+
+def default_workers() -> int:
+    return max(1, min(4, os.cpu_count() or 1))
+
+
+def generate(settings: SiteSettings, catalogue: Catalogue, atlas: Mapping[str, PairResults],
+             workers: int | None = None) -> tuple[AtlasView, SiteContent]:
+    """Every source file of the site, from the computed atlas (nothing is written)."""
+    view = build_views(settings, catalogue, dict(atlas))
+    pair_figs, comp_figs = _render_figures(settings, catalogue, atlas,
+                                           default_workers() if workers is None else workers)
+    content = SiteContent()
+    pair_data: dict[str, dict[str, Any]] = {}
+    for pv in view.pairs:
+        results = atlas[pv.id]
+        for result, cv in zip(results.conditions, pv.conditions, strict=True):
+            curve, table = condition_csvs(results, result)
+            content.add(cv.curve_csv, curve)
+            content.add(cv.table_csv, table)
+        pair_data[pv.id] = pair_json(results, pv, settings)
+        content.add(pv.json_path, json.dumps(plain(pair_data[pv.id]), indent=1, ensure_ascii=False,
+                                             allow_nan=False) + "\n")
+        for fig in pair_figs[pv.id]:
+            content.add(fig.path, fig.svg)
+    for fig in comp_figs.values():
+        content.add(fig.path, fig.svg)
+    content.add("atlas.json", atlas_json(view, catalogue, atlas, pair_data))
+    pages = render_pages(view, pair_figs, comp_figs, {})
+    for path, text in pages.items():
+        content.add(path, text)
+    return view, content

@@ -1,0 +1,96 @@
+"""Markdown pages from the jinja2 templates of ``site_templates/pages/``.
+
+The environment escapes every value a template prints with :func:`.text.escape`
+(HTML, attribute and Markdown syntax alike), so catalogue text reaches the
+page as text only.  Code that means to insert markup builds it as
+:class:`markupsafe.Markup` itself; templates have no ``|safe``.
+
+Pages are written as Markdown with raw-HTML blocks for the summary box,
+figures and tables (Markdown does not parse inside them).  The one thing the
+pages assume of the static-site engine is the page-URL convention:
+``pairs/x.md`` is published as ``pairs/x.html`` (:func:`page_url`).
+"""
+
+from __future__ import annotations
+
+import math
+import posixpath
+from collections.abc import Mapping, Sequence
+from typing import Any
+
+import jinja2
+from markupsafe import Markup
+
+from . import TEMPLATES
+from .context import AtlasView, ComponentView, PairView
+from .figures import Figure
+from .text import escape, fmt
+
+__all__ = ["environment", "page_url", "render_pages"]
+
+
+def page_url(path: str) -> str:
+    """The published URL of a generated page (``pairs/x.md`` -> ``pairs/x.html``)."""
+    return path[:-3] + ".html" if path.endswith(".md") else path
+
+
+def _finalize(value: Any) -> Markup:
+    return escape("" if value is None else value)
+
+
+def environment() -> jinja2.Environment:
+    env = jinja2.Environment(
+        loader=jinja2.FileSystemLoader(str(TEMPLATES / "pages")),
+        autoescape=True, finalize=_finalize, undefined=jinja2.StrictUndefined,
+        trim_blocks=True, lstrip_blocks=True, keep_trailing_newline=True,
+    )
+    env.filters["fmt"] = fmt
+    env.filters["sortkey"] = _sortkey
+    return env
+
+
+def _sortkey(value: float) -> str:
+    """A numeric sort key for table cells (missing values sort last)."""
+    return "999999" if math.isnan(value) else f"{value:.6f}"
+
+
+def _relative(here: str) -> Any:
+    base = posixpath.dirname(here)
+
+    def rel(target: str) -> Markup:
+        url = posixpath.relpath(page_url(target), base or ".")
+        return Markup(url)  # paths are made of safe slugs only (checked in .content)
+
+    return rel
+
+
+def render_pages(view: AtlasView, figures: Mapping[str, Sequence[Figure]],
+                 component_figures: Mapping[str, Figure], methods_context: Mapping[str, Any]
+                 ) -> dict[str, str]:
+    """Every page: ``{site-relative .md path: Markdown text}``."""
+    env = environment()
+    pages: dict[str, str] = {}
+
+    def render(template: str, path: str, **context: Any) -> None:
+        pages[path] = env.get_template(template).render(
+            site=view.settings, atlas=view, rel=_relative(path), here=path, **context)
+
+    render("index.md.j2", "index.md")
+    render("components.md.j2", "components/index.md")
+    render("methods.md.j2", "methods.md", **methods_context)
+    for pair in view.pairs:
+        render("pair.md.j2", pair.url, p=pair, figures=_grouped(figures.get(pair.id, ())))
+    for component in view.components:
+        render("component.md.j2", component.url, c=component,
+               figure=component_figures.get(component.id), pairs_of=_pairs_of(view, component))
+    return pages
+
+
+def _grouped(figures: Sequence[Figure]) -> dict[str, Any]:
+    by_slug = {f.slug: f for f in figures if f.group == "condition"}
+    others = {f.group: f for f in figures if f.group != "condition"}
+    return {"condition": by_slug, **others}
+
+
+def _pairs_of(view: AtlasView, component: ComponentView) -> list[PairView]:
+    return [p for p in view.pairs if component.id in (p.c1.id, p.c2.id)]

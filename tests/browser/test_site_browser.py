@@ -1,0 +1,160 @@
+"""The built atlas in Chromium, from file:// and over a local HTTP server.
+
+Reference: common practice (an offline site loads nothing from another host; search,
+filters and sorting work in the page itself).
+"""
+
+from __future__ import annotations
+
+import re
+from collections.abc import Iterator
+from pathlib import Path
+from typing import Any
+
+import pytest
+
+from builder.site.serve import Preview
+
+from .conftest import Watched
+
+
+@pytest.fixture(scope="module")
+def server(site: Path) -> Iterator[str]:
+    preview = Preview(site, "127.0.0.1", 0, quiet=True).start()
+    yield preview.url
+    preview.close()
+
+
+def _search(page: Any, query: str) -> list[str]:
+    """Type into the site search as a person would (the index loads on focus)."""
+    box = page.locator("input.md-search__input")
+    box.click()
+    box.fill("")
+    page.keyboard.type(query, delay=20)
+    page.wait_for_function(
+        "() => { const m = document.querySelector('.md-search-result__meta');"
+        " return m && /matching|No matching/.test(m.textContent); }")
+    page.wait_for_timeout(300)
+    return [t.strip() for t in page.locator(".md-search-result__item h1").all_inner_texts()]
+
+
+def _all_images_loaded(page: Any) -> int:
+    page.wait_for_load_state("load")
+    broken = page.evaluate("() => [...document.images].filter(i => !i.complete ||"
+                           " i.naturalWidth === 0).map(i => i.src)")
+    assert broken == [], f"figures that did not load: {broken}"
+    return int(page.evaluate("() => document.images.length"))
+
+
+@pytest.mark.parametrize("origin", ["file", "http"])
+def test_search_finds_components_by_name_and_cas(site: Path, server: str, origin: str,
+                                                 watched: Watched) -> None:
+    page = watched.page
+    page.goto((site / "index.html").as_uri() if origin == "file" else server)
+    assert "chloroform" in page.title().lower() or page.title()
+    results = _search(page, "chloroform")
+    assert "Chloroform" in results[:3]
+    assert any("Chloroform" in r and "+" in r for r in results)
+    assert "Chloroform" in _search(page, "CHCl3")  # formula
+    assert "Ethanol" in _search(page, "ethyl alcohol")  # synonym
+    assert _search(page, "67-66-3")[0] == "Chloroform"  # CAS number
+    page.locator(".md-search-result__item").first.click()
+    page.wait_for_url(re.compile(r".*/components/chloroform\.html(\?.*)?$"))
+    assert _all_images_loaded(page) >= 1
+    watched.check()
+
+
+def test_index_filters_and_sorts(site: Path, watched: Watched) -> None:
+    page = watched.page
+    page.goto((site / "index.html").as_uri())
+    rows = page.locator("#atlas-pairs tbody tr")
+    total = rows.count()
+    assert total >= 7
+    page.select_option("#atlas-behaviour", "minimum-boiling")
+    visible = page.locator("#atlas-pairs tbody tr:not([hidden])")
+    behaviours = visible.evaluate_all("rows => rows.map(r => r.dataset.behaviour)")
+    assert behaviours and set(behaviours) == {"minimum-boiling"}
+    assert "Ethanol + Water" in visible.all_inner_texts()[0] or any(
+        "Ethanol + Water" in t for t in visible.all_inner_texts())
+    assert page.locator("#atlas-count").inner_text().startswith(f"{len(behaviours)} of {total}")
+    page.select_option("#atlas-component", "water")
+    texts = page.locator("#atlas-pairs tbody tr:not([hidden])").all_inner_texts()
+    assert texts and all("Water" in t for t in texts)
+    page.select_option("#atlas-behaviour", "")
+    page.select_option("#atlas-component", "")
+    page.locator("#atlas-text").fill("7732-18-5")
+    texts = page.locator("#atlas-pairs tbody tr:not([hidden])").all_inner_texts()
+    assert texts and all("Water" in t for t in texts)
+    page.locator("#atlas-text").fill("")
+    # Sort by the normal boiling point of component 1, then back the other way.
+    header = page.locator("#atlas-pairs thead th", has_text="1 /")
+    header.click()
+    keys = page.locator("#atlas-pairs tbody tr td:nth-child(2)").evaluate_all(
+        "cells => cells.map(c => parseFloat(c.dataset.sort))")
+    assert keys == sorted(keys)
+    header.click()
+    keys = page.locator("#atlas-pairs tbody tr td:nth-child(2)").evaluate_all(
+        "cells => cells.map(c => parseFloat(c.dataset.sort))")
+    assert keys == sorted(keys, reverse=True)
+    watched.check()
+
+
+@pytest.mark.parametrize("origin", ["file", "http"])
+def test_pair_pages_show_every_figure(site: Path, server: str, origin: str,
+                                      watched: Watched) -> None:
+    page = watched.page
+    page.goto((site / "index.html").as_uri() if origin == "file" else server)
+    page.get_by_role("link", name="Ethanol + Water", exact=True).click()
+    page.wait_for_url("**/pairs/ethanol--water.html")
+    assert page.locator("h1").inner_text() == "Ethanol + Water"
+    summary = page.locator(".atlas-summary").inner_text()
+    assert "minimum-boiling azeotrope" in summary
+    count = _all_images_loaded(page)
+    assert count >= 6  # Txy, Pxy, xy, ln γ, α (and the azeotrope trace)
+    alts = page.locator("img").evaluate_all("imgs => imgs.map(i => i.alt)")
+    assert all(len(a) > 40 for a in alts)
+    assert page.locator("text=Screening only").count() >= 1
+    # Every pair of the shipped catalogue: a page whose figures all load (from disk; over
+    # HTTP a sample, the files being the same).
+    links = sorted((site / "pairs").glob("*.html"))
+    for link in links if origin == "file" else links[:3]:
+        page.goto(link.as_uri() if origin == "file" else f"{server}pairs/{link.name}")
+        assert _all_images_loaded(page) >= 5, link.name
+    watched.check()
+
+
+def test_methods_page_renders_math_offline(site: Path, watched: Watched) -> None:
+    page = watched.page
+    page.goto((site / "methods.html").as_uri())
+    page.wait_for_selector(".arithmatex .katex")
+    unrendered = page.evaluate("() => [...document.querySelectorAll('.arithmatex')]"
+                               ".filter(e => !e.querySelector('.katex')).length")
+    assert unrendered == 0
+    assert any("katex" in url and url.endswith(".woff2") for url in watched.requests)
+    watched.check()
+
+
+def test_hostile_catalogue_text_shows_as_text(tmp_path_factory: pytest.TempPathFactory,
+                                             watched: Watched) -> None:
+    from builder.site.build import build_site
+    from tests.test_site import HOSTILE_NAME, hostile_catalogue
+
+    root = tmp_path_factory.mktemp("hostile-browser")
+    out = root / "site"
+    build_site(hostile_catalogue(root), out_dir=out, only=["acetone--chloroform"])
+    page = watched.page
+    for name in ("pairs/acetone--chloroform.html", "components/chloroform.html",
+                 "methods.html", "index.html"):
+        page.goto((out / name).as_uri())
+        page.wait_for_load_state("load")
+        page.mouse.move(300, 300)
+        assert page.evaluate("() => window.__pwned") is None, name
+        assert page.locator("a[href^='javascript']").count() == 0
+    page.goto((out / "pairs/acetone--chloroform.html").as_uri())
+    assert HOSTILE_NAME in page.locator("h1").inner_text()
+    assert "[click](javascript:" in page.locator(".atlas-notes").inner_text()
+    assert HOSTILE_NAME in page.title()
+    results = _search(page, "pwned")
+    assert results and page.evaluate("() => window.__pwned") is None
+    assert page.locator(".md-search-result script, .md-search-result img").count() == 0
+    watched.check()
