@@ -15,8 +15,8 @@ from pathlib import Path
 
 sys.path.insert(0, str(Path(__file__).resolve().parent.parent))
 
-from builder.catalogue import load_catalogue  # noqa: E402
-from builder.results import compute_pair  # noqa: E402
+from builder.catalogue import load_catalogue
+from builder.results import compute_pair
 
 
 def main() -> None:

@@ -133,7 +133,10 @@ def find_azeotropes(system: eq.BinarySystem, *, P_Pa: float | None = None,
     # Only neighbours on the grid bracket a root: a sign change across an excluded stretch
     # (a two-liquid region) is not a homogeneous azeotrope.
     adjacent = idx[1:] == idx[:-1] + 1
-    change = np.flatnonzero((np.sign(fa) * np.sign(fb) < 0) & adjacent)
+    # A change of sign within round-off of ln α = 0 (α = 1 to 1e-9 on both sides, a
+    # degenerate liquid) is not an azeotrope.
+    resolvable = np.maximum(np.abs(fa), np.abs(fb)) > 1e-9
+    change = np.flatnonzero((np.sign(fa) * np.sign(fb) < 0) & adjacent & resolvable)
     lo, hi = x[idx[change]], x[idx[change + 1]]
     falling = fa[change] > 0  # α from above 1 to below 1 with increasing x1
     exact = [i for i in idx if f[i] == 0.0 and 0.0 < x[i] < 1.0]

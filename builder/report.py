@@ -12,10 +12,13 @@ import json
 import math
 from typing import Any
 
+from .analysis import trace_azeotrope
 from .catalogue import Catalogue
 from .errors import AtlasError
 from .lookup import find_pair
-from .results import ConditionResult, compute_condition
+from .point import system_for
+from .records import PairRecord
+from .results import ConditionResult, compute_condition, swapped_pair
 from .units import format_pressure, format_temperature
 
 __all__ = ["ANALYSES", "condition_json", "run"]
@@ -97,11 +100,37 @@ def run(args: argparse.Namespace, catalogue: Catalogue) -> int:
                                swapped=swapped, split_x1=split)
     data = {"analysis": args.kind, "pair": pair.id, "components": [c1.id, c2.id],
             "model": pair.model.name, **condition_json(result, args.kind)}
+    if getattr(args, "trace", False):
+        if args.kind != "azeotrope" or kind != "isobar":
+            raise AtlasError("--trace goes with azeotrope at a pressure (--P)")
+        data["trace"] = _trace_json(catalogue, pair, swapped, result)
     if args.json:
         print(json.dumps(data, indent=2))
     else:
         print(_text(args.kind, data, c1.name, c2.name))
     return 0
+
+
+def _trace_json(catalogue: Catalogue, pair: PairRecord, swapped: bool,
+                result: ConditionResult) -> dict[str, Any] | None:
+    if not result.azeotropes:
+        return None
+    record = swapped_pair(pair) if swapped else pair
+    trace = trace_azeotrope(system_for(record, catalogue), record.model, result.azeotropes[0],
+                            (pair.T_min_K, pair.T_max_K))
+    if trace is None:
+        return None
+    return {
+        "kind": trace.kind,
+        "P_Pa": trace.P_Pa.tolist(),
+        "x1": [None if math.isnan(v) else v for v in trace.x1.tolist()],
+        "T_K": [None if math.isnan(v) else v for v in trace.T_K.tolist()],
+        "heterogeneous": trace.heterogeneous.tolist(),
+        "extrapolated": trace.extrapolated.tolist(),
+        "shift_x1": trace.shift_x1,
+        "pressure_sensitive": trace.pressure_sensitive,
+        "events": list(trace.events),
+    }
 
 
 def _text(what: str, data: dict[str, Any], name1: str, name2: str) -> str:
@@ -121,6 +150,20 @@ def _text(what: str, data: dict[str, Any], name1: str, name2: str) -> str:
                 xa, xb = a["liquid_x1"]
                 text += f"; heterogeneous: liquids x1 = {xa:.4f} and {xb:.4f}"
             lines.append(text)
+        trace = data.get("trace")
+        if trace:
+            lines += ["", f"  followed against pressure ({trace['kind']}):",
+                      f"  {'P (kPa)':>10} {'x1':>8} {'T (K)':>9}"]
+            for P, x, T, ext in zip(trace["P_Pa"], trace["x1"], trace["T_K"],
+                                    trace["extrapolated"], strict=True):
+                row = (f"  {P / 1e3:>10.4g} {'none':>8} {'':>9}" if x is None else
+                       f"  {P / 1e3:>10.4g} {x:>8.4f} {T:>9.2f}")
+                lines.append(row + ("  (extrapolated)" if ext and x is not None else ""))
+            verdict = ("moves enough to matter: pressure-swing distillation deserves a look"
+                       if trace["pressure_sensitive"] else "moves little with pressure")
+            lines.append(f"  composition shift {trace['shift_x1']:.3f} across the range: "
+                         f"{verdict} (common practice: 0.05 or more)")
+            lines += [f"  {event}" for event in trace["events"]]
         tp = data["three_phase"]
         if tp and not tp["heterogeneous_azeotrope"]:
             lines.append(f"  two liquids (x1 = {tp['liquid_x1'][0]:.4f} and "

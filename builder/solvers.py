@@ -121,9 +121,11 @@ def solve_bracketed(
         mask = np.zeros(n, dtype=bool)
         mask[idx] = True
         fa = f(ua, mask)
-        h = relative_step * np.maximum(np.abs(ua), 1.0)
-        # Step towards the inside of the bracket for the difference.
-        direction = np.where(hi[idx] >= ua + h, 1.0, -1.0)
+        width = np.abs(hi[idx] - lo[idx])
+        h = np.minimum(relative_step * np.maximum(np.abs(ua), 1.0), 0.5 * width)
+        h = np.where(h > 0, h, relative_step)
+        # Probe towards the middle of the bracket, so the difference never leaves it.
+        direction = np.where(0.5 * (lo[idx] + hi[idx]) >= ua, 1.0, -1.0)
         dfa = (f(ua + direction * h, mask) - fa) / (direction * h)
         residual[idx] = fa
 

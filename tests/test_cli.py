@@ -155,3 +155,16 @@ def test_volatility_and_quicklook_commands(capsys: pytest.CaptureFixture[str]) -
     assert code == 0 and "minimum theoretical stages" in out and "Fenske" in out
     code, _, err = _run(capsys, "calc", "quicklook", "benzene", "toluene", "--T", "90C")
     assert code == 2 and "isobar" in err
+
+
+def test_azeotrope_trace_against_pressure(capsys: pytest.CaptureFixture[str]) -> None:
+    """Acetone-methanol: the azeotrope moves towards acetone as pressure falls (a known
+    pressure-swing candidate; common practice) and the trace says so."""
+    code, out, _ = _run(capsys, "calc", "azeotrope", "acetone", "methanol", "--P", "1atm",
+                        "--trace", "--json")
+    trace = json.loads(out)["trace"]
+    assert code == 0 and trace["pressure_sensitive"] is True
+    xs = [x for x in trace["x1"] if x is not None]
+    assert xs == sorted(xs, reverse=True)  # richer in acetone at lower pressure
+    assert trace["shift_x1"] >= 0.05
+    assert 101325.0 in trace["P_Pa"]
