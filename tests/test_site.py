@@ -249,6 +249,8 @@ def test_small_site_has_every_page_figure_and_download(small_site: Path) -> None
             assert (small_site / "pairs" / href).is_file()
     assert (small_site / "components" / "water.html").is_file()
     assert "\\(" in (small_site / "methods.html").read_text(encoding="utf-8")
+    checks = (small_site / "catalogue.html").read_text(encoding="utf-8")
+    assert "azeotrope at 101.325 kPa" in checks and "poling-2001" in checks
 
 
 def test_atlas_json_and_csv(small_site: Path) -> None:
@@ -268,7 +270,7 @@ def test_atlas_json_and_csv(small_site: Path) -> None:
 
 def test_hostile_catalogue_text_is_inert(hostile_site: Path) -> None:
     for page in ("pairs/acetone--chloroform.html", "components/chloroform.html",
-                 "methods.html", "index.html"):
+                 "methods.html", "index.html", "catalogue.html"):
         html = (hostile_site / page).read_text(encoding="utf-8")
         for live in ("<script>window", "<img src=x", "<svg onload", "<iframe",
                      'href="javascript', "<b onmouseover", "evil.example/x.css\"",

@@ -78,6 +78,7 @@ def render_pages(view: AtlasView, figures: Mapping[str, Sequence[Figure]],
     render("index.md.j2", "index.md")
     render("components.md.j2", "components/index.md")
     render("methods.md.j2", "methods.md", **methods_context)
+    render("catalogue.md.j2", "catalogue.md")
     for pair in view.pairs:
         render("pair.md.j2", pair.url, p=pair, figures=_grouped(figures.get(pair.id, ())))
     for component in view.components:
