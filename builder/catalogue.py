@@ -146,12 +146,11 @@ class _Entry:
             self.fail(name, "a positive number", value)
         return float(value)
 
-    def quantity(self, name: str, dimension: str, default: Any = ...) -> float:
-        value = self.raw(name, default, f"a {dimension.replace('_', ' ')} with a unit")
+    def quantity(self, name: str, dimension: str) -> float:
+        """A required dimensional value, converted to SI (NaN and an error if missing)."""
+        value = self.raw(name, expected=f"a {dimension.replace('_', ' ')} with a unit")
         if value is None:
             return math.nan
-        if isinstance(value, float) and value is default:
-            return value
         return self.convert(name, value, dimension)
 
     def convert(self, name: str, value: Any, dimension: str) -> float:
@@ -659,7 +658,7 @@ def _recorded(entry: _Entry, references: Mapping[str, Reference]) -> RecordedBeh
         az = _Entry(entry.file, entry.entry, item, entry.errors,
                     prefix=f"{block.prefix}azeotropes[{index}].")
         P = az.quantity("P", "pressure")
-        T_az = az.quantity("T", "temperature", None) if az.has("T") else None
+        T_az = az.quantity("T", "temperature") if az.has("T") else None
         x1 = az.number("x1", None) if az.has("x1") else None
         if x1 is not None and not (0.0 < x1 < 1.0):
             az.fail("x1", "a mole fraction strictly between 0 and 1", x1)

@@ -31,7 +31,7 @@ from __future__ import annotations
 import itertools
 import math
 from collections.abc import Callable
-from dataclasses import dataclass
+from dataclasses import dataclass, replace
 
 import numpy as np
 from numpy.typing import NDArray
@@ -241,6 +241,4 @@ def quick_look(system: eq.BinarySystem, P_Pa: float, azeotropes: tuple[Azeotrope
 
 
 def _replace(base: QuickLook, **changes: object) -> QuickLook:
-    from dataclasses import replace
-
     return replace(base, **changes)  # type: ignore[arg-type]

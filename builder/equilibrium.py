@@ -27,7 +27,7 @@ import numpy as np
 from numpy.typing import ArrayLike, NDArray
 
 from .activity import ActivityModel, Swapped
-from .solvers import expand_bracket, solve_bracketed
+from .solvers import Function, expand_bracket, solve_bracketed
 from .vapour_pressure import VapourPressure
 
 __all__ = [
@@ -189,12 +189,19 @@ def dew_pressure(system: BinarySystem, y1: ArrayLike, T_K: ArrayLike) -> Equilib
     return _reshape(EquilibriumResult(T, P, x, y, ln_g1, ln_g2, ok), shape)
 
 
-def _temperature_bracket(system: BinarySystem, P: FloatArray) -> tuple[FloatArray, FloatArray]:
+def _temperature_start(system: BinarySystem, P: FloatArray, z1: FloatArray,
+                       residual: Function) -> tuple[FloatArray, FloatArray, FloatArray]:
+    """Bracket and first guess for a temperature solve at ``P``.
+
+    The bracket starts at the pure components' saturation temperatures and is
+    widened until ``residual`` changes sign (an azeotrope may boil outside
+    that span); the guess interpolates the two by the composition ``z1``.
+    """
     T1 = np.asarray(system.psat1.temperature_K(P), dtype=float)
     T2 = np.asarray(system.psat2.temperature_K(P), dtype=float)
-    lo = np.fmin(T1, T2)
-    hi = np.fmax(T1, T2)
-    return lo, hi
+    lo, hi = expand_bracket(residual, np.fmin(T1, T2) * 0.995, np.fmax(T1, T2) * 1.005,
+                            factor=1.02)
+    return lo, hi, np.clip(z1 * T1 + (1.0 - z1) * T2, lo, hi)
 
 
 def bubble_temperature(system: BinarySystem, x1: ArrayLike, P_Pa: ArrayLike) -> EquilibriumResult:
@@ -212,11 +219,7 @@ def bubble_temperature(system: BinarySystem, x1: ArrayLike, P_Pa: ArrayLike) -> 
         p1, p2, _, _ = _partial_pressures(system, x[mask], T)
         return np.log(p1 + p2) - ln_P[mask]
 
-    T_a, T_b = _temperature_bracket(system, P)
-    lo, hi = expand_bracket(residual, T_a * 0.995, T_b * 1.005, factor=1.02)
-    T1 = np.asarray(system.psat1.temperature_K(P), dtype=float)
-    T2 = np.asarray(system.psat2.temperature_K(P), dtype=float)
-    guess = np.clip(x * T1 + (1.0 - x) * T2, lo, hi)
+    lo, hi, guess = _temperature_start(system, P, x, residual)
     solved = solve_bracketed(residual, lo, hi, guess)
     T = solved.root
     p1, p2, ln_g1, ln_g2 = _partial_pressures(system, x, T)
@@ -241,11 +244,7 @@ def dew_temperature(system: BinarySystem, y1: ArrayLike, P_Pa: ArrayLike) -> Equ
         p1, p2, _, _ = _partial_pressures(system, x, T)
         return np.log(p1 + p2) - ln_P[mask]
 
-    T_a, T_b = _temperature_bracket(system, P)
-    lo, hi = expand_bracket(residual, T_a * 0.995, T_b * 1.005, factor=1.02)
-    T1 = np.asarray(system.psat1.temperature_K(P), dtype=float)
-    T2 = np.asarray(system.psat2.temperature_K(P), dtype=float)
-    guess = np.clip(y * T1 + (1.0 - y) * T2, lo, hi)
+    lo, hi, guess = _temperature_start(system, P, y, residual)
     solved = solve_bracketed(residual, lo, hi, guess)
     T = solved.root
     x, inner_ok = _liquid_for_vapour(system, y, T)
