@@ -25,6 +25,9 @@ def test_shipped_catalogue_checks_clean(capsys: pytest.CaptureFixture[str],
     text = report.read_text(encoding="utf-8")
     assert "## Azeotropes at 101.325 kPa against published tables" in text
     assert "## Sources" in text and "poling-2001" in text
+    committed = DEFAULT_CATALOGUE.parent / "docs" / "catalogue.md"
+    assert committed.read_text(encoding="utf-8") == text, (
+        "docs/catalogue.md is out of date: run 'atlas check --report docs/catalogue.md'")
 
 
 def test_a_wrong_parameter_set_fails_the_check(capsys: pytest.CaptureFixture[str],
