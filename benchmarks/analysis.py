@@ -15,8 +15,8 @@ from pathlib import Path
 
 sys.path.insert(0, str(Path(__file__).resolve().parent.parent))
 
-from builder.catalogue import load_catalogue
-from builder.results import compute_pair
+from builder.analysis.results import compute_pair
+from builder.catalogue.loader import load_catalogue
 
 
 def main() -> None:

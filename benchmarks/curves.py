@@ -29,9 +29,9 @@ import numpy as np
 warnings.filterwarnings("ignore")
 sys.path.insert(0, str(Path(__file__).resolve().parent.parent))
 
-from builder.catalogue import load_catalogue  # noqa: E402
-from builder.curves import isobar  # noqa: E402
-from builder.point import system_for  # noqa: E402
+from builder.analysis.curves import isobar  # noqa: E402
+from builder.analysis.point import system_for  # noqa: E402
+from builder.catalogue.loader import load_catalogue  # noqa: E402
 from tests.references import thermo_flasher  # noqa: E402
 
 PAIR = "ethanol--water"

@@ -7,10 +7,10 @@ import warnings
 
 import pytest
 
-from builder.catalogue import Catalogue, load_catalogue
-from builder.equilibrium import BinarySystem
-from builder.point import system_for
-from builder.results import PairResults, compute_atlas
+from builder.analysis.point import system_for
+from builder.analysis.results import PairResults, compute_atlas
+from builder.catalogue.loader import Catalogue, load_catalogue
+from builder.thermo.equilibrium import BinarySystem
 
 # The reference libraries print deprecation chatter on import; it is not ours.
 warnings.filterwarnings("ignore", category=DeprecationWarning)

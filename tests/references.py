@@ -11,14 +11,14 @@ import warnings
 
 import numpy as np
 
-from builder.activity import NRTL, UNIQUAC, Ideal, Margules, Swapped, Wilson
-from builder.records import PairRecord
+from builder.catalogue.records import PairRecord
+from builder.thermo.activity import NRTL, UNIQUAC, Ideal, Margules, Swapped, Wilson
 
 warnings.filterwarnings("ignore")
 
 # CoolProp fluids with a reference equation of state, by catalogue id (shared with
 # ``atlas check``).
-from builder.catalogue_check import COOLPROP_HEOS  # noqa: E402
+from builder.analysis.catalogue_checks import COOLPROP_HEOS  # noqa: E402
 
 
 def coolprop_psat_Pa(component_id: str, T_K: np.ndarray) -> np.ndarray:

@@ -13,10 +13,9 @@ import pytest
 from hypothesis import given, settings
 from hypothesis import strategies as st
 
-from builder import activity as act
-from builder.catalogue import Catalogue
-
-from .references import thermo_gammas, van_laar_closed_form
+from builder.catalogue.loader import Catalogue
+from builder.thermo import activity as act
+from tests.references import thermo_gammas, van_laar_closed_form
 
 # thermo's UNIQUAC divides by x_i, so the pure ends are approached, not hit; the ends
 # themselves are checked for continuity below.

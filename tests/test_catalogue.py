@@ -11,7 +11,7 @@ from pathlib import Path
 
 import pytest
 
-from builder.catalogue import DEFAULT_CATALOGUE, load_catalogue
+from builder.catalogue.loader import DEFAULT_CATALOGUE, load_catalogue
 from builder.errors import CatalogueErrors
 
 

@@ -11,8 +11,8 @@ from pathlib import Path
 
 import pytest
 
-from builder.catalogue import DEFAULT_CATALOGUE
-from builder.cli import main
+from builder.catalogue.loader import DEFAULT_CATALOGUE
+from builder.commands.cli import main
 
 
 def test_shipped_catalogue_checks_clean(capsys: pytest.CaptureFixture[str],

@@ -13,7 +13,7 @@ import sys
 
 import pytest
 
-from builder.cli import main
+from builder.commands.cli import main
 
 
 def _run(capsys: pytest.CaptureFixture[str], *args: str) -> tuple[int, str, str]:

@@ -15,12 +15,12 @@ import pytest
 from hypothesis import given, settings
 from hypothesis import strategies as st
 
-from builder import equilibrium as eq
-from builder.activity import Ideal
-from builder.catalogue import Catalogue
-from builder.distillation import Split, fenske_stages, quick_look, underwood_minimum_reflux
-from builder.results import compute_condition
-from builder.vapour_pressure import Antoine
+from builder.analysis.distillation import Split, fenske_stages, quick_look, underwood_minimum_reflux
+from builder.analysis.results import compute_condition
+from builder.catalogue.loader import Catalogue
+from builder.thermo import equilibrium as eq
+from builder.thermo.activity import Ideal
+from builder.thermo.vapour_pressure import Antoine
 
 
 def _constant_alpha(alpha: float) -> eq.BinarySystem:

@@ -17,12 +17,11 @@ import pytest
 from hypothesis import given, settings
 from hypothesis import strategies as st
 
-from builder import equilibrium as eq
-from builder.activity import Ideal, Margules, TemperatureFunction
-from builder.catalogue import Catalogue
-from builder.vapour_pressure import Antoine
-
-from .references import thermo_flasher
+from builder.catalogue.loader import Catalogue
+from builder.thermo import equilibrium as eq
+from builder.thermo.activity import Ideal, Margules, TemperatureFunction
+from builder.thermo.vapour_pressure import Antoine
+from tests.references import thermo_flasher
 
 # ---------------------------------------------------------------------------
 # Ideal solution: Raoult's and Dalton's laws in closed form (common practice)

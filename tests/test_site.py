@@ -19,8 +19,9 @@ import numpy as np
 import pytest
 import yaml
 
-from builder.catalogue import Catalogue
-from builder.results import PairResults, compute_pair
+from builder.analysis.results import PairResults, compute_pair
+from builder.analysis.stability import ThreePhase
+from builder.catalogue.loader import Catalogue
 from builder.site.assemble import AssembleError, check_output_folder
 from builder.site.build import build_site
 from builder.site.content import SiteContent, generate
@@ -29,7 +30,6 @@ from builder.site.figures import pair_figures
 from builder.site.settings import SettingsError, SiteSettings, load_settings
 from builder.site.text import UnsafeName, escape, file_slug, safe_id
 from builder.site.verify import verify_site
-from builder.stability import ThreePhase
 
 pytest.importorskip("material", reason="the site extra is not installed: pip install -e '.[site]'")
 
@@ -310,7 +310,7 @@ def test_preview_serves_on_loopback_only(small_site: Path) -> None:
 
 def test_cli_build_refuses_a_foreign_folder(tmp_path: Path,
                                             capsys: pytest.CaptureFixture[str]) -> None:
-    from builder.cli import main
+    from builder.commands.cli import main
 
     (tmp_path / "report.docx").write_text("not a site", encoding="utf-8")
     assert main(["build", "--out", str(tmp_path)]) == 2

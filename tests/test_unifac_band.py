@@ -16,7 +16,7 @@ import warnings
 import numpy as np
 import pytest
 
-from builder.catalogue import Catalogue
+from builder.catalogue.loader import Catalogue
 
 #: |ln γ∞(model) - ln γ∞(UNIFAC)| allowed before a pair is flagged (common practice:
 #: UNIFAC's infinite-dilution errors of a factor of two or so are usual).

@@ -6,7 +6,7 @@ import math
 
 import pytest
 
-from builder.units import UnitError, parse_quantity, to_si
+from builder.thermo.units import UnitError, parse_quantity, to_si
 
 
 @pytest.mark.parametrize(

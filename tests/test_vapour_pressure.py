@@ -15,10 +15,9 @@ import pytest
 from hypothesis import given
 from hypothesis import strategies as st
 
-from builder.catalogue import Catalogue
-from builder.vapour_pressure import Antoine, ExtendedAntoine
-
-from .references import COOLPROP_HEOS, coolprop_psat_Pa
+from builder.catalogue.loader import Catalogue
+from builder.thermo.vapour_pressure import Antoine, ExtendedAntoine
+from tests.references import COOLPROP_HEOS, coolprop_psat_Pa
 
 
 def _perry_2_8_Pa(cas: str, T_K: np.ndarray) -> np.ndarray:

@@ -5,7 +5,7 @@ object to the next (nothing is written until everything is computed):
 
 1. :mod:`.settings` -- read and validate the site settings (``site.yaml``);
 2. load and validate the catalogue (:func:`builder.catalogue.load_catalogue`);
-3. compute every pair (:func:`builder.results.compute_atlas`);
+3. compute every pair (:func:`builder.analysis.results.compute_atlas`);
 4. :mod:`.context` -- turn results into page views (plain, display-ready data);
 5. :mod:`.figures`, :mod:`.data`, :mod:`.pages` -- render SVG figures, CSV and
    JSON downloads and Markdown pages through the jinja2 templates of

@@ -25,10 +25,10 @@ from typing import Any
 
 import yaml
 
-from ..errors import AtlasError
-from . import TEMPLATES
-from .content import SiteContent
-from .settings import SiteSettings
+from builder.errors import AtlasError
+from builder.site import TEMPLATES
+from builder.site.content import SiteContent
+from builder.site.settings import SiteSettings
 
 __all__ = ["MARKER", "AssembleError", "AssembleReport", "assemble", "check_output_folder"]
 

@@ -20,14 +20,14 @@ from collections.abc import Callable, Iterable
 from dataclasses import dataclass, field
 from pathlib import Path
 
-from ..catalogue import DEFAULT_CATALOGUE, load_catalogue
-from ..errors import AtlasError
-from ..results import compute_atlas
-from . import DEFAULT_OUTPUT
-from .assemble import assemble, check_output_folder
-from .content import generate
-from .settings import load_settings
-from .verify import verify_site
+from builder.analysis.results import compute_atlas
+from builder.catalogue.loader import DEFAULT_CATALOGUE, load_catalogue
+from builder.errors import AtlasError
+from builder.site import DEFAULT_OUTPUT
+from builder.site.assemble import assemble, check_output_folder
+from builder.site.content import generate
+from builder.site.settings import load_settings
+from builder.site.verify import verify_site
 
 __all__ = ["DEFAULT_OUTPUT", "BuildFailure", "BuildReport", "build_site"]
 

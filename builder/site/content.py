@@ -18,14 +18,14 @@ from concurrent.futures import ProcessPoolExecutor
 from dataclasses import dataclass, field
 from typing import Any
 
-from ..catalogue import Catalogue
-from ..results import PairResults
-from .context import AtlasView, build_views
-from .data import atlas_json, condition_csvs, pair_json, plain
-from .figures import Figure, component_figure, pair_figures
-from .pages import render_pages
-from .settings import SiteSettings
-from .text import UnsafeName
+from builder.analysis.results import PairResults
+from builder.catalogue.loader import Catalogue
+from builder.site.context import AtlasView, build_views
+from builder.site.data import atlas_json, condition_csvs, pair_json, plain
+from builder.site.figures import Figure, component_figure, pair_figures
+from builder.site.pages import render_pages
+from builder.site.settings import SiteSettings
+from builder.site.text import UnsafeName
 
 __all__ = ["SiteContent", "generate"]
 

@@ -21,11 +21,11 @@ from typing import Any
 import numpy as np
 from numpy.typing import NDArray
 
-from ..catalogue import QUALITIES, Catalogue
-from ..records import Component, PairRecord, Source
-from ..results import ConditionResult, PairResults
-from .settings import SiteSettings
-from .text import file_slug, fmt, one_line, safe_id
+from builder.analysis.results import ConditionResult, PairResults
+from builder.catalogue.loader import QUALITIES, Catalogue
+from builder.catalogue.records import Component, PairRecord, Source
+from builder.site.settings import SiteSettings
+from builder.site.text import file_slug, fmt, one_line, safe_id
 
 __all__ = [
     "BEHAVIOURS",

@@ -19,12 +19,12 @@ from typing import Any
 
 import numpy as np
 
-from ..catalogue import Catalogue
-from ..records import Component
-from ..results import ConditionResult, PairResults
-from .context import AtlasView, PairView, behaviour, optional, summary_condition
-from .settings import SiteSettings
-from .text import safe_id
+from builder.analysis.results import ConditionResult, PairResults
+from builder.catalogue.loader import Catalogue
+from builder.catalogue.records import Component
+from builder.site.context import AtlasView, PairView, behaviour, optional, summary_condition
+from builder.site.settings import SiteSettings
+from builder.site.text import safe_id
 
 __all__ = ["FORMAT", "atlas_json", "condition_csvs", "pair_json", "plain"]
 

@@ -38,11 +38,11 @@ from matplotlib.patches import Patch
 from matplotlib.ticker import FuncFormatter
 from numpy.typing import NDArray
 
-from ..records import Component
-from ..results import ConditionResult, PairResults
-from .context import Display, condition_slug, optional
-from .settings import SiteSettings
-from .text import fmt, mpl_text, one_line, safe_id
+from builder.analysis.results import ConditionResult, PairResults
+from builder.catalogue.records import Component
+from builder.site.context import Display, condition_slug, optional
+from builder.site.settings import SiteSettings
+from builder.site.text import fmt, mpl_text, one_line, safe_id
 
 __all__ = ["Figure", "component_figure", "pair_figures"]
 

@@ -21,10 +21,10 @@ from typing import Any
 import jinja2
 from markupsafe import Markup
 
-from . import TEMPLATES
-from .context import AtlasView, ComponentView, PairView
-from .figures import Figure
-from .text import escape, fmt
+from builder.site import TEMPLATES
+from builder.site.context import AtlasView, ComponentView, PairView
+from builder.site.figures import Figure
+from builder.site.text import escape, fmt
 
 __all__ = ["environment", "page_url", "render_pages"]
 

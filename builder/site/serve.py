@@ -9,7 +9,7 @@ from http.server import SimpleHTTPRequestHandler, ThreadingHTTPServer
 from pathlib import Path
 from typing import Any
 
-from ..errors import AtlasError
+from builder.errors import AtlasError
 
 __all__ = ["Preview", "serve"]
 

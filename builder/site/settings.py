@@ -30,8 +30,8 @@ from typing import Any
 
 import yaml
 
-from ..errors import AtlasError
-from ..units import UNITS, UnitError, parse_quantity
+from builder.errors import AtlasError
+from builder.thermo.units import UNITS, UnitError, parse_quantity
 
 __all__ = ["DEFAULT_SETTINGS_FILE", "SettingsError", "SiteSettings", "load_settings"]
 

@@ -30,7 +30,7 @@ import re
 
 from markupsafe import Markup
 
-from ..records import PAIR_SEPARATOR, SLUG
+from builder.catalogue.records import PAIR_SEPARATOR, SLUG
 
 __all__ = [
     "UnsafeName",

@@ -14,8 +14,7 @@ from typing import Any
 import pytest
 
 from builder.site.serve import Preview
-
-from .conftest import Watched
+from tests.browser.conftest import Watched
 
 
 @pytest.fixture(scope="module")

@@ -31,8 +31,8 @@ from typing import Literal, Protocol
 import numpy as np
 from numpy.typing import ArrayLike, NDArray
 
-from .solvers import solve_bracketed
-from .units import to_si
+from builder.thermo.solvers import solve_bracketed
+from builder.thermo.units import to_si
 
 __all__ = ["Antoine", "ExtendedAntoine", "VapourPressure"]
 

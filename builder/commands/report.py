@@ -12,14 +12,14 @@ import json
 import math
 from typing import Any
 
-from .analysis import trace_azeotrope
-from .catalogue import Catalogue
-from .errors import AtlasError
-from .lookup import find_pair
-from .point import system_for
-from .records import PairRecord
-from .results import ConditionResult, compute_condition, swapped_pair
-from .units import format_pressure, format_temperature
+from builder.analysis.point import system_for
+from builder.analysis.results import ConditionResult, compute_condition, swapped_pair
+from builder.analysis.trace import trace_azeotrope
+from builder.catalogue.loader import Catalogue
+from builder.catalogue.lookup import find_pair
+from builder.catalogue.records import PairRecord
+from builder.errors import AtlasError
+from builder.thermo.units import format_pressure, format_temperature
 
 __all__ = ["ANALYSES", "condition_json", "run"]
 

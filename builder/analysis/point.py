@@ -16,10 +16,10 @@ from typing import Any, Literal
 import numpy as np
 from numpy.typing import ArrayLike
 
-from . import equilibrium as eq
-from .catalogue import Catalogue
-from .lookup import find_pair
-from .records import Component, PairRecord
+from builder.catalogue.loader import Catalogue
+from builder.catalogue.lookup import find_pair
+from builder.catalogue.records import Component, PairRecord
+from builder.thermo import equilibrium as eq
 
 __all__ = ["POINT_KINDS", "PointAnswer", "mass_to_mole", "mole_to_mass", "solve_point",
            "system_for", "validity_warnings"]

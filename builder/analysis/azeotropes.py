@@ -25,8 +25,8 @@ from dataclasses import dataclass
 import numpy as np
 from numpy.typing import NDArray
 
-from . import equilibrium as eq
-from .solvers import solve_bracketed
+from builder.thermo import equilibrium as eq
+from builder.thermo.solvers import solve_bracketed
 
 __all__ = ["Azeotrope", "AzeotropeSearch", "find_azeotropes", "search_grid"]
 
@@ -100,8 +100,8 @@ def find_azeotropes(system: eq.BinarySystem, *, P_Pa: float | None = None,
     symmetric Margules liquid (A = 1) with equal vapour pressures has one at
     x1 = 0.5, a pressure maximum:
 
-    >>> from builder.activity import Margules
-    >>> from builder.vapour_pressure import Antoine
+    >>> from builder.thermo.activity import Margules
+    >>> from builder.thermo.vapour_pressure import Antoine
     >>> flat = Antoine(A=11.0, B=3000.0, C=0.0, T_min_K=200.0, T_max_K=500.0)
     >>> steeper = Antoine(A=12.0, B=3300.0, C=0.0, T_min_K=200.0, T_max_K=500.0)
     >>> s = eq.BinarySystem(flat, flat, Margules.constant(1.0, 1.0))

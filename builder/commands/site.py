@@ -1,4 +1,4 @@
-"""The ``atlas build`` and ``atlas serve`` subcommands (added to :mod:`builder.cli`)."""
+"""The ``atlas build`` and ``atlas serve`` subcommands (added to :mod:`builder.commands.cli`)."""
 
 from __future__ import annotations
 
@@ -7,7 +7,7 @@ import sys
 from pathlib import Path
 from typing import Any
 
-from . import DEFAULT_OUTPUT
+from builder.site import DEFAULT_OUTPUT
 
 __all__ = ["COMMANDS", "add_parsers", "run"]
 
@@ -46,7 +46,7 @@ def add_parsers(commands: Any) -> None:
 def run(args: argparse.Namespace) -> int:
     """Run ``build`` or ``serve``; errors propagate as :class:`AtlasError`."""
     if args.command == "build":
-        from .build import build_site  # matplotlib and mkdocs load only when building
+        from builder.site.build import build_site  # matplotlib and mkdocs load only when building
 
         print(f"Building the atlas from {args.catalogue} into {args.out}", flush=True)
         report = build_site(args.catalogue, args.out, settings_file=args.settings,
@@ -58,7 +58,7 @@ def run(args: argparse.Namespace) -> int:
         print(report.summary())
         return 0
     if args.command == "serve":
-        from .serve import serve
+        from builder.site.serve import serve
 
         serve(args.site, args.host, args.port)
         return 0

@@ -26,9 +26,9 @@ from dataclasses import dataclass
 import numpy as np
 from numpy.typing import ArrayLike, NDArray
 
-from .activity import ActivityModel, Swapped
-from .solvers import Function, expand_bracket, solve_bracketed
-from .vapour_pressure import VapourPressure
+from builder.thermo.activity import ActivityModel, Swapped
+from builder.thermo.solvers import Function, expand_bracket, solve_bracketed
+from builder.thermo.vapour_pressure import VapourPressure
 
 __all__ = [
     "BinarySystem",
@@ -102,8 +102,8 @@ def k_values(
 ) -> tuple[FloatArray, FloatArray]:
     """Equilibrium ratios ``K_i = γ_i P_i^sat / P`` (ideal vapour).
 
-    >>> from builder.activity import Ideal
-    >>> from builder.vapour_pressure import Antoine
+    >>> from builder.thermo.activity import Ideal
+    >>> from builder.thermo.vapour_pressure import Antoine
     >>> flat = Antoine(A=11.0, B=0.0, C=0.0, T_min_K=1.0, T_max_K=1e3)  # P = e**11 Pa
     >>> system = BinarySystem(flat, flat, Ideal())
     >>> [round(float(k), 6) for k in k_values(system, 0.5, 300.0, 2 * np.exp(11.0))]

@@ -13,10 +13,16 @@ from dataclasses import dataclass
 import numpy as np
 from numpy.typing import NDArray
 
-from . import curves, stability
-from . import equilibrium as eq
-from .activity import ActivityModel
-from .azeotropes import KIND_ISOBAR, KIND_ISOTHERM, Azeotrope, find_azeotropes, search_grid
+from builder.analysis import curves, stability
+from builder.analysis.azeotropes import (
+    KIND_ISOBAR,
+    KIND_ISOTHERM,
+    Azeotrope,
+    find_azeotropes,
+    search_grid,
+)
+from builder.thermo import equilibrium as eq
+from builder.thermo.activity import ActivityModel
 
 __all__ = ["AzeotropeTrace", "Phases", "analyse", "trace_azeotrope"]
 

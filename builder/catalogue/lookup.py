@@ -5,9 +5,9 @@ from __future__ import annotations
 import difflib
 import re
 
-from .catalogue import Catalogue
-from .errors import LookupFailure
-from .records import Component, PairRecord
+from builder.catalogue.loader import Catalogue
+from builder.catalogue.records import Component, PairRecord
+from builder.errors import LookupFailure
 
 __all__ = ["find_component", "find_pair", "normalise"]
 

@@ -11,8 +11,8 @@ from __future__ import annotations
 import re
 from dataclasses import dataclass, field
 
-from .activity import ActivityModel
-from .vapour_pressure import VapourPressure
+from builder.thermo.activity import ActivityModel
+from builder.thermo.vapour_pressure import VapourPressure
 
 __all__ = [
     "SLUG",

@@ -24,9 +24,7 @@ from typing import Any, TypeVar
 
 import yaml
 
-from . import activity as act
-from .errors import CatalogueError, CatalogueErrors
-from .records import (
+from builder.catalogue.records import (
     PAIR_SEPARATOR,
     SLUG,
     Component,
@@ -36,13 +34,21 @@ from .records import (
     Reference,
     Source,
 )
-from .units import GAS_CONSTANT_J_PER_MOL_K, UnitError, parse_quantity, split_quantity, to_si
-from .vapour_pressure import Antoine, ExtendedAntoine, VapourPressure
+from builder.errors import CatalogueError, CatalogueErrors
+from builder.thermo import activity as act
+from builder.thermo.units import (
+    GAS_CONSTANT_J_PER_MOL_K,
+    UnitError,
+    parse_quantity,
+    split_quantity,
+    to_si,
+)
+from builder.thermo.vapour_pressure import Antoine, ExtendedAntoine, VapourPressure
 
 __all__ = ["DEFAULT_CATALOGUE", "Catalogue", "load_catalogue"]
 
 #: The catalogue shipped with the project.
-DEFAULT_CATALOGUE = Path(__file__).resolve().parent.parent / "pairs"
+DEFAULT_CATALOGUE = Path(__file__).resolve().parents[2] / "pairs"
 
 T = TypeVar("T")
 

@@ -37,9 +37,9 @@ import numpy as np
 from numpy.typing import NDArray
 from scipy.optimize import minimize_scalar
 
-from . import equilibrium as eq
-from .azeotropes import Azeotrope
-from .stability import ThreePhase
+from builder.analysis.azeotropes import Azeotrope
+from builder.analysis.stability import ThreePhase
+from builder.thermo import equilibrium as eq
 
 __all__ = ["QuickLook", "Split", "fenske_stages", "quick_look", "total_reflux_stages",
            "underwood_minimum_reflux"]

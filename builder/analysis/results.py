@@ -14,16 +14,16 @@ from dataclasses import dataclass, field, replace
 import numpy as np
 from numpy.typing import NDArray
 
-from . import curves, stability
-from .activity import Swapped
-from .analysis import AzeotropeTrace, analyse, trace_azeotrope
-from .azeotropes import Azeotrope
-from .catalogue import Catalogue
-from .checks import Check, check_pair
-from .distillation import QuickLook, Split, quick_look
-from .point import system_for
-from .records import Component, PairRecord
-from .volatility import Volatility, volatility
+from builder.analysis import curves, stability
+from builder.analysis.azeotropes import Azeotrope
+from builder.analysis.checks import Check, check_pair
+from builder.analysis.distillation import QuickLook, Split, quick_look
+from builder.analysis.point import system_for
+from builder.analysis.trace import AzeotropeTrace, analyse, trace_azeotrope
+from builder.analysis.volatility import Volatility, volatility
+from builder.catalogue.loader import Catalogue
+from builder.catalogue.records import Component, PairRecord
+from builder.thermo.activity import Swapped
 
 __all__ = ["ConditionResult", "PairResults", "compute_atlas", "compute_condition", "compute_pair",
            "swapped_pair"]

@@ -29,8 +29,8 @@ import numpy as np
 from numpy.typing import ArrayLike, NDArray
 from scipy.optimize import brentq, fsolve
 
-from . import equilibrium as eq
-from .activity import ActivityModel
+from builder.thermo import equilibrium as eq
+from builder.thermo.activity import ActivityModel
 
 __all__ = ["LiquidSplit", "ThreePhase", "binodal", "mixing_gibbs_RT", "stable",
            "three_phase_isobar", "three_phase_isotherm"]
@@ -80,7 +80,7 @@ TANGENT_TOLERANCE = 1e-9
 def mixing_gibbs_RT(model: ActivityModel, x1: ArrayLike, T_K: ArrayLike) -> FloatArray:
     """``Δg_mix/RT = x1 ln x1 + x2 ln x2 + x1 ln γ1 + x2 ln γ2`` (zero at the pure ends).
 
-    >>> from builder.activity import Ideal
+    >>> from builder.thermo.activity import Ideal
     >>> round(float(mixing_gibbs_RT(Ideal(), 0.5, 300.0)), 6)
     -0.693147
     """
@@ -100,7 +100,7 @@ def stable(model: ActivityModel, x1: ArrayLike, T_K: ArrayLike) -> NDArray[np.bo
     tangent at ``x1`` has slope ``ln a1 - ln a2``; the liquid is stable when no
     trial composition lies below it.  Pure components are stable.
 
-    >>> from builder.activity import Margules
+    >>> from builder.thermo.activity import Margules
     >>> stable(Margules.constant(3.0, 3.0), [0.02, 0.5, 0.98], 300.0).tolist()
     [True, False, True]
     """
@@ -149,7 +149,7 @@ def binodal(model: ActivityModel, T_K: float) -> LiquidSplit | None:
     Symmetric Margules with A = 3: the closed form ``ln(x/(1-x)) = A (2x - 1)``
     gives 0.070720 and 0.929280.
 
-    >>> from builder.activity import Margules
+    >>> from builder.thermo.activity import Margules
     >>> split = binodal(Margules.constant(3.0, 3.0), 300.0)
     >>> round(split.x1_a, 6), round(split.x1_b, 6)
     (0.07072, 0.92928)

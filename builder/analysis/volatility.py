@@ -18,7 +18,7 @@ from dataclasses import dataclass
 import numpy as np
 from numpy.typing import NDArray
 
-from . import equilibrium as eq
+from builder.thermo import equilibrium as eq
 
 __all__ = ["ROUND_COMPOSITIONS", "Volatility", "VolatilityRow", "difficulty", "volatility"]
 

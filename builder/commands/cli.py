@@ -17,11 +17,12 @@ from collections.abc import Sequence
 from pathlib import Path
 from typing import Any
 
-from . import point, report
-from .catalogue import DEFAULT_CATALOGUE, Catalogue, load_catalogue
-from .errors import AtlasError
-from .site import commands as site_commands
-from .units import UnitError, format_pressure, format_temperature, parse_quantity
+from builder.analysis import point
+from builder.catalogue.loader import DEFAULT_CATALOGUE, Catalogue, load_catalogue
+from builder.commands import report
+from builder.commands import site as site_commands
+from builder.errors import AtlasError
+from builder.thermo.units import UnitError, format_pressure, format_temperature, parse_quantity
 
 __all__ = ["main"]
 
@@ -167,7 +168,7 @@ def _point_table(answer: point.PointAnswer, show_mass: bool = False) -> str:
 
 
 def _check(args: argparse.Namespace) -> int:
-    from . import catalogue_check
+    from builder.analysis import catalogue_checks as catalogue_check
 
     only = [path.stem for path in args.files]
     catalogue = load_catalogue(args.catalogue, only=only)

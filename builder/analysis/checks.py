@@ -14,7 +14,7 @@ from dataclasses import dataclass
 from typing import TYPE_CHECKING
 
 if TYPE_CHECKING:
-    from .results import PairResults
+    from builder.analysis.results import PairResults
 
 __all__ = ["AZEOTROPE_T_TOLERANCE_K", "AZEOTROPE_X_TOLERANCE", "Check", "check_pair"]
 

@@ -30,9 +30,9 @@ from dataclasses import dataclass
 
 import numpy as np
 
-from .catalogue import Catalogue
-from .records import Component
-from .results import PairResults, compute_atlas
+from builder.analysis.results import PairResults, compute_atlas
+from builder.catalogue.loader import Catalogue
+from builder.catalogue.records import Component
 
 __all__ = ["COOLPROP_HEOS", "ComponentCheck", "check_components", "markdown_report",
            "run_checks"]
