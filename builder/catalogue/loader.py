@@ -864,11 +864,15 @@ def _files(folder: Path) -> list[Path]:
     return sorted(folder.glob("*.yaml")) if folder.is_dir() else []
 
 
-def load_catalogue(root: Path | str = DEFAULT_CATALOGUE, only: Iterable[str] = ()) -> Catalogue:
+def load_catalogue(root: Path | str = DEFAULT_CATALOGUE, only: Iterable[str] = (),
+                   problems: list[CatalogueError] | None = None) -> Catalogue:
     """Read, validate and convert a catalogue folder; raise :class:`CatalogueErrors`.
 
     ``only`` restricts the pairs loaded to the given pair ids (components and
-    references are always loaded in full, since pairs refer to them).
+    references are always loaded in full, since pairs refer to them).  With
+    ``problems`` (a list), nothing is raised: every problem is appended there and
+    the catalogue holds whatever loaded cleanly (``atlas check`` reports the broken
+    files and still checks the others).
     """
     root = Path(root)
     errors: list[CatalogueError] = []
@@ -925,7 +929,11 @@ def load_catalogue(root: Path | str = DEFAULT_CATALOGUE, only: Iterable[str] = (
                                          "catalogue", "no such pair file"))
         pairs = {k: v for k, v in pairs.items() if k in wanted}
     _check_names_unique(components, errors)
-    if errors:
+    if problems is not None:
+        problems.extend(errors)
+        broken_files = {e.file for e in errors}
+        pairs = {k: v for k, v in pairs.items() if v.file not in broken_files}
+    elif errors:
         raise CatalogueErrors(errors)
     return Catalogue(root=root, references=references, components=components, pairs=pairs)
 
