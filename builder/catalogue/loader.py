@@ -283,7 +283,8 @@ def _convert(entry: _Entry, spec: Field, raw: Any, name: str = "") -> float:
             number, unit = split_quantity(raw)
             value = to_si(number, unit, dimension)
     except (UnitError, OverflowError) as error:
-        entry.fail(name, expected + f" ({error})", raw)
+        detail = "" if str(error).startswith("expected") else f" ({error})"
+        entry.fail(name, expected + detail, raw)
         return math.nan
     if not spec.within(value):
         entry.fail(name, f"a {dimension.replace('_', ' ')} {_si_bounds(spec)}", raw)

@@ -19,7 +19,7 @@ from typing import Any
 
 from builder.analysis import point
 from builder.catalogue.loader import DEFAULT_CATALOGUE, Catalogue, load_catalogue
-from builder.commands import report
+from builder.commands import authoring, report
 from builder.commands import site as site_commands
 from builder.errors import AtlasError, CatalogueError
 from builder.thermo.units import UnitError, format_pressure, format_temperature, parse_quantity
@@ -102,6 +102,7 @@ def _parser() -> argparse.ArgumentParser:
     listing = commands.add_parser("list", help="the catalogued components and pairs")
     listing.add_argument("--json", action="store_true", help="print JSON")
     site_commands.add_parsers(commands)
+    authoring.add_parsers(commands)
     return parser
 
 
@@ -215,6 +216,8 @@ def main(argv: Sequence[str] | None = None) -> int:
     try:
         if args.command in site_commands.COMMANDS:
             return site_commands.run(args)
+        if args.command in authoring.COMMANDS:
+            return authoring.run(args)
         if args.command == "check":
             return _check(args)
         catalogue = load_catalogue(args.catalogue)
