@@ -20,6 +20,7 @@ from typing import Any
 from builder.analysis import point
 from builder.catalogue.loader import DEFAULT_CATALOGUE, Catalogue, load_catalogue
 from builder.commands import authoring, report
+from builder.commands import diff as diff_command
 from builder.commands import site as site_commands
 from builder.errors import AtlasError, CatalogueError
 from builder.thermo.units import UnitError, format_pressure, format_temperature, parse_quantity
@@ -103,6 +104,7 @@ def _parser() -> argparse.ArgumentParser:
     listing.add_argument("--json", action="store_true", help="print JSON")
     site_commands.add_parsers(commands)
     authoring.add_parsers(commands)
+    diff_command.add_parsers(commands)
     return parser
 
 
@@ -218,6 +220,8 @@ def main(argv: Sequence[str] | None = None) -> int:
             return site_commands.run(args)
         if args.command in authoring.COMMANDS:
             return authoring.run(args)
+        if args.command in diff_command.COMMANDS:
+            return diff_command.run(args)
         if args.command == "check":
             return _check(args)
         catalogue = load_catalogue(args.catalogue)
