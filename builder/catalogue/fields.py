@@ -159,7 +159,7 @@ def _source(required: bool = True, help: str = "where these numbers come from") 
 # references/<id>.yaml
 # ---------------------------------------------------------------------------
 
-REFERENCE_KINDS = ("book", "article", "database", "handbook", "standard", "software")
+REFERENCE_KINDS = ("book", "article", "database", "handbook", "standard")
 
 REFERENCE = Block("reference", (
     Field("id", "slug", pattern=SLUG_PATTERN, help="equal to the file name without .yaml"),
