@@ -24,6 +24,7 @@ from typing import Any, TypeVar
 
 import yaml
 
+from builder.catalogue.groups import parse_groups
 from builder.catalogue.records import (
     PAIR_SEPARATOR,
     SLUG,
@@ -372,6 +373,11 @@ def _load_component(entry: _Entry, references: Mapping[str, Reference]) -> Compo
         uniquac_source = _source(uniquac, "source", references)
         uniquac.finish()
 
+    groups_block = entry.child("groups", None)
+    groups = None
+    if groups_block is not None:
+        groups = parse_groups(groups_block, lambda b: _source(b, "source", references))
+
     vp_block = entry.child("vapour_pressure")
     vapour_pressure = vp_source = None
     if vp_block is not None:
@@ -398,6 +404,7 @@ def _load_component(entry: _Entry, references: Mapping[str, Reference]) -> Compo
         vapour_pressure=vapour_pressure, vapour_pressure_source=vp_source,
         constants_sources=sources, hazard=hazard, hazard_source=hazard_source,
         uniquac_r=r, uniquac_q=q, uniquac_source=uniquac_source, file=entry.file,
+        groups=groups,
     )
 
 
