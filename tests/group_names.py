@@ -18,7 +18,6 @@ from builder.catalogue.formula import atoms_of
 
 #: Groups named after a molecule or ring part (structure from the group definitions).
 NAMED = {
-    "THF": "CH2O",          # the ring CH2-O of tetrahydrofuran
     "FURFURAL": "C5H4O2",   # the whole molecule
     "DOH": "C2H6O2",        # ethylene glycol, HOCH2CH2OH
     "DMSO": "C2H6OS",       # dimethyl sulfoxide
@@ -37,7 +36,11 @@ NAMED = {
 
 #: Named differently in the two variants: NMP is the whole molecule in original UNIFAC,
 #: the ring part CON-CH3 in modified UNIFAC (Dortmund) (with three CY-CH2 groups).
-NAMED_BY_MODEL = {("unifac", "NMP"): "C5H9NO", ("dortmund", "NMP"): "C2H3NO"}
+#: THF is the ring CH2-O in original UNIFAC (tetrahydrofuran = 3 CH2 + 1 THF) but the
+#: ring CH2-O-CH2 in modified UNIFAC (Dortmund) (tetrahydrofuran = 2 CY-CH2 + 1 THF,
+#: 1,4-dioxane = 2 THF), as the DDBST group assignments show.
+NAMED_BY_MODEL = {("unifac", "NMP"): "C5H9NO", ("dortmund", "NMP"): "C2H3NO",
+                  ("unifac", "THF"): "CH2O", ("dortmund", "THF"): "C2H4O"}
 
 
 def group_formula(name: str, model: str) -> str:
