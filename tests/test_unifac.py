@@ -35,8 +35,8 @@ SAMPLE = [
 
 def _thermo_ln_gamma(model: UNIFAC, x1: float, T: float) -> tuple[float, float]:
     table = group_tables(model.variant)
-    groups = [{table.subgroups[name].number: int(n) for name, n in zip(model.subgroups, row, strict=True)
-               if n} for row in model.nu]
+    groups = [{table.subgroups[name].number: int(n)
+               for name, n in zip(model.subgroups, row, strict=True) if n} for row in model.nu]
     if model.variant == "unifac":
         ref = thermo_unifac.UNIFAC.from_subgroups(T=T, xs=[x1, 1 - x1], chemgroups=groups,
                                                   version=0)
