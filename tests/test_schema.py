@@ -97,7 +97,9 @@ def mutated(draw: st.DrawFn) -> tuple[str, str, Any]:
     name = draw(st.sampled_from(BASES[folder]))
     doc = yaml.safe_load((DEFAULT_CATALOGUE / folder / f"{name}.yaml").read_text("utf-8"))
     for _ in range(draw(st.integers(1, 3))):
-        path = draw(st.sampled_from(_paths(doc)))
+        # UNIFAC subgroups are checked against the group tables and the formula (atom
+        # balance): cross-file rules of the loader alone, left out here.
+        path = draw(st.sampled_from([p for p in _paths(doc) if p[0] != "groups"]))
         parent, key = _get(doc, path[:-1]), path[-1]
         op = draw(st.sampled_from(["delete", "unknown", "retype"]))
         if op == "delete" and isinstance(parent, dict):

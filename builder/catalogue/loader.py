@@ -31,6 +31,8 @@ from typing import Any, TypeVar
 
 from builder.catalogue import fields
 from builder.catalogue.fields import AZEOTROPE_KINDS, QUALITIES, Block, Field
+from builder.catalogue.group_tables import DEFAULT_GROUPS, group_tables
+from builder.catalogue.groups import parse_groups
 from builder.catalogue.reader import ReadProblem, read_yaml
 from builder.catalogue.records import (
     PAIR_SEPARATOR,
@@ -386,6 +388,12 @@ def _read_quantities(entry: _Entry, spec: Field, raw: Any) -> tuple[float, ...]:
     return tuple(_convert(entry, spec, item) for item in raw)
 
 
+def _read_counts(entry: _Entry, spec: Field, raw: Any) -> Any:
+    """The mapping as written: its names are checked against the group tables by
+    :func:`builder.catalogue.groups.parse_groups`, which knows them."""
+    return raw
+
+
 def _read_block(entry: _Entry, spec: Field, raw: Any) -> _Entry | None:
     return entry.child(spec.name)
 
@@ -399,7 +407,7 @@ _READERS: dict[str, Callable[[_Entry, Field, Any], Any]] = {
     "quantity": _read_quantity, "coefficient": _read_coefficient, "choice": _read_choice,
     "boolean": _read_boolean, "texts": _read_texts, "label": _read_label,
     "tfunction": _read_tfunction, "range": _read_range, "quantities": _read_quantities,
-    "block": _read_block, "blocks": _read_blocks,
+    "block": _read_block, "blocks": _read_blocks, "counts": _read_counts,
 }
 
 _EMPTY: dict[str, Any] = {
@@ -534,7 +542,8 @@ _CONSTANTS = ("molar_mass", "normal_boiling_point", "critical_temperature",
               "critical_pressure", "acentric_factor", "liquid_molar_volume")
 
 
-def _load_component(entry: _Entry, references: Mapping[str, Reference]) -> Component | None:
+def _load_component(entry: _Entry, references: Mapping[str, Reference],
+                    groups_folder: Path = DEFAULT_GROUPS) -> Component | None:
     cid = entry.get("id")
     name = entry.get("name")
     synonyms = entry.get("synonyms") or ()
@@ -569,6 +578,13 @@ def _load_component(entry: _Entry, references: Mapping[str, Reference]) -> Compo
         r, q = uniquac.get("r"), uniquac.get("q")
         uniquac_source = _source(uniquac, references)
         uniquac.finish()
+
+    groups_block = entry.child("groups")
+    groups = None
+    if groups_block is not None:
+        groups = parse_groups(groups_block, lambda b: _source(b, references),
+                              lambda v: group_tables(v, groups_folder), formula,
+                              values.get("molar_mass", math.nan))
 
     vp_block = entry.child("vapour_pressure")
     vapour_pressure = vp_source = None
@@ -609,6 +625,7 @@ def _load_component(entry: _Entry, references: Mapping[str, Reference]) -> Compo
         vapour_pressure=vapour_pressure, vapour_pressure_source=vp_source,
         constants_sources=sources, hazard=hazard, hazard_source=hazard_source,
         uniquac_r=r, uniquac_q=q, uniquac_source=uniquac_source, file=entry.file,
+        groups=groups,
     )
 
 
@@ -938,7 +955,8 @@ def load_catalogue(root: Path | str = DEFAULT_CATALOGUE, only: Iterable[str] = (
         return out
 
     references = load_all("references", _load_reference)
-    components = load_all("components", lambda e: _load_component(e, references))
+    groups_folder = root / "groups" if (root / "groups").is_dir() else DEFAULT_GROUPS
+    components = load_all("components", lambda e: _load_component(e, references, groups_folder))
     broken = {p.stem for p in _files(root / "components")} - set(components)
     needs_uniquac: dict[str, list[str]] = {}
     pairs = load_all("binaries", lambda e: _load_pair(e, components, references, broken,

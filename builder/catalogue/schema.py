@@ -12,7 +12,8 @@ typing::
 What the schema cannot say (it is checked by the loader alone): the value and
 range of a number written with its unit inside a string, a CAS check digit,
 ids that must match file names and other files, and cross-field rules
-(boiling point below the critical point, a correlation sound over its range).
+(boiling point below the critical point, a correlation sound over its range), and UNIFAC
+subgroup names and their atom balance against the group tables.
 """
 
 from __future__ import annotations
@@ -101,6 +102,11 @@ def _field_schema(spec: Field) -> dict[str, Any]:
                   "maxItems": 2}
     elif kind == "quantities":
         schema = {"type": "array", "items": _quantity(spec.dimension)}
+    elif kind == "counts":
+        # The names are checked against the group tables by the loader alone.
+        schema = {"type": "object", "minProperties": 1,
+                  "propertyNames": {"pattern": r"^\S+$"},
+                  "additionalProperties": {"type": "integer", "minimum": 1}}
     elif kind == "block":
         assert spec.block is not None
         schema = block_schema(spec.block)
