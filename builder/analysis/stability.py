@@ -201,9 +201,9 @@ def three_phase_isobar(system: eq.BinarySystem, P_Pa: float, T_guess_K: float
 
     ``T_guess_K`` is a temperature near the expected three-phase line (the
     homogeneous bubble temperature of an unstable liquid).  The search scans
-    ±40 K around it for a sign change of ``ln P_bubble(binodal(T)) - ln P``,
-    then up to 200 K above it (nearly immiscible liquids), and refines it with
-    Brent's method.
+    ±40 K around it (10 K steps, then 2.5 K) for a sign change of
+    ``ln P_bubble(binodal(T)) - ln P``, then up to 200 K above it (nearly
+    immiscible liquids), and refines it with Brent's method.
     """
     def mismatch(T: float) -> float:
         split = binodal(system.activity, T)
@@ -211,18 +211,31 @@ def three_phase_isobar(system: eq.BinarySystem, P_Pa: float, T_guess_K: float
             return float("nan")
         return float(np.log(_split_bubble(system, split).P_Pa[0]) - np.log(P_Pa))
 
-    temperatures = T_guess_K + np.linspace(-40.0, 40.0, 33)
-    values = np.array([mismatch(float(T)) for T in temperatures])
-    for i in range(values.size - 1):
-        a, b = values[i], values[i + 1]
-        if np.isfinite(a) and np.isfinite(b) and a * b <= 0:
-            return _three_phase_at(system, P_Pa, mismatch, temperatures[i], temperatures[i + 1])
+    known: dict[float, float] = {}
+
+    def cached(T: float) -> float:
+        if T not in known:
+            known[T] = mismatch(T)
+        return known[T]
+
+    # A coarse pass (10 K) first: each point is a binodal, the costly part.  The fine pass
+    # (2.5 K) catches a split that exists over a narrow range of temperatures only.
+    for points in (9, 33):
+        temperatures = T_guess_K + np.linspace(-40.0, 40.0, points)
+        values = np.array([cached(float(T)) for T in temperatures])
+        for i in range(values.size - 1):
+            a, b = values[i], values[i + 1]
+            if np.isfinite(a) and np.isfinite(b) and a * b <= 0:
+                return _three_phase_at(system, P_Pa, mismatch, temperatures[i],
+                                       temperatures[i + 1])
+        if np.isfinite(values).all() and (values < 0).all():
+            break  # two liquids throughout, all boiling above P: the line lies higher up
     # Nearly immiscible liquids (hydrocarbons or chlorinated solvents with water) have
     # metastable one-liquid bubble temperatures far below the three-phase line: go on
     # upwards until the binodal liquids boil at P.
     previous_T, previous = float(temperatures[-1]), float(values[-1])
     for T in T_guess_K + np.arange(45.0, 205.0, 5.0):
-        value = mismatch(float(T))
+        value = cached(float(T))
         if np.isfinite(previous) and np.isfinite(value) and previous * value <= 0:
             return _three_phase_at(system, P_Pa, mismatch, previous_T, float(T))
         previous_T, previous = float(T), value
