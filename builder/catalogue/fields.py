@@ -248,6 +248,19 @@ VAPOUR_PRESSURE = Block("vapour_pressure", (
     ),
 }, help="vapour-pressure correlation as published, with its validity range")
 
+#: Subgroup name -> count; the names are those of the group tables (pairs/groups/), read
+#: and checked by builder/catalogue/groups.py, not field by field.
+SUBGROUP_COUNTS = Block("subgroup counts", (), help="subgroup name -> positive whole count, "
+                        "names as spelled in the group tables (pairs/groups/)")
+
+GROUPS = Block("groups", (
+    Field("unifac", "block", block=SUBGROUP_COUNTS, required=False,
+          help="subgroups of original UNIFAC, e.g. {CH3: 1, CH2: 1, OH: 1}"),
+    Field("dortmund", "block", block=SUBGROUP_COUNTS, required=False,
+          help="subgroups of modified UNIFAC (Dortmund), e.g. {CH3: 1, CH2: 1, \"OH(P)\": 1}"),
+    _source(help="the published group definitions the assignment follows"),
+), help="UNIFAC subgroups for the predictive models; at least one variant")
+
 COMPONENT = Block("component", (
     Field("id", "slug", pattern=SLUG_PATTERN, help="equal to the file name without .yaml"),
     Field("name", "text", help="the name shown to readers"),
