@@ -81,6 +81,29 @@ def test_no_variant_and_unknown_field(scratch: Path) -> None:
 
 
 def test_source_is_required_and_checked(scratch: Path) -> None:
-    _set_groups(scratch, "groups:\n  unifac: {CH3: 2}\n  source: {ref: nowhere-2000, where: x}\n")
+    _set_groups(scratch, ETHANOL_GROUPS.replace("hansen-1991", "nowhere-2000"))
     (problem,) = _problems(scratch)
     assert "field 'groups.source.ref'" in problem and "nowhere-2000" in problem
+
+
+def test_unknown_subgroup_name_suggests_the_spelling(scratch: Path) -> None:
+    _set_groups(scratch, ETHANOL_GROUPS.replace('"OH(P)"', '"oh(p)"'))
+    (problem,) = _problems(scratch)
+    assert "field 'groups.dortmund.oh(p)'" in problem and "'OH(P)'" in problem
+
+
+def test_groups_must_add_up_to_the_formula(scratch: Path) -> None:
+    # Ethanol C2H6O written with two CH3 groups and no CH2: C2H7O does not balance.
+    _set_groups(scratch, ETHANOL_GROUPS.replace("{CH3: 1, CH2: 1, OH: 1}", "{CH3: 2, OH: 1}"))
+    (problem,) = _problems(scratch)
+    assert "field 'groups.unifac'" in problem and "add up to the formula C2H6O" in problem
+    assert "C2H7O" in problem
+
+
+def test_molar_mass_must_match_the_formula(scratch: Path) -> None:
+    _set_groups(scratch, ETHANOL_GROUPS)
+    path = scratch / "components" / "ethanol.yaml"
+    path.write_text(path.read_text(encoding="utf-8").replace("46.0684 g/mol", "46.2 g/mol"),
+                    encoding="utf-8")
+    (problem,) = _problems(scratch)
+    assert "field 'groups'" in problem and "46.069 g/mol" in problem and "46.200" in problem
