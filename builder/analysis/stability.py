@@ -29,6 +29,7 @@ import numpy as np
 from numpy.typing import ArrayLike, NDArray
 from scipy.optimize import brentq, fsolve
 
+from builder.analysis.phase_lines import three_phase_points
 from builder.thermo import equilibrium as eq
 from builder.thermo.activity import ActivityModel
 
@@ -193,15 +194,25 @@ def three_phase_isotherm(system: eq.BinarySystem, T_K: float) -> ThreePhase | No
                       x1_b=split.x1_b, y1=float(bubble.y1[0]))
 
 
-def three_phase_isobar(system: eq.BinarySystem, P_Pa: float, T_guess_K: float
-                       ) -> ThreePhase | None:
+def three_phase_isobar(system: eq.BinarySystem, P_Pa: float, T_guess_K: float,
+                       x1_guess: tuple[float, float] | None = None) -> ThreePhase | None:
     """VLLE on an isobar: the temperature at which the binodal liquids boil at ``P_Pa``.
 
     ``T_guess_K`` is a temperature near the expected three-phase line (the
-    homogeneous bubble temperature of an unstable liquid).  The search scans
-    ±40 K around it for a sign change of ``ln P_bubble(binodal(T)) - ln P``
+    homogeneous bubble temperature of an unstable liquid).  With ``x1_guess``
+    (the ends of the unstable stretch of the bubble curve) the three equations
+    of the point are solved directly by Newton's method
+    (:func:`builder.analysis.phase_lines.three_phase_points`), accepted within
+    ±40 K of the guess.  Otherwise, or when that fails, the search scans ±40 K
+    around the guess for a sign change of ``ln P_bubble(binodal(T)) - ln P``
     and refines it with Brent's method.
     """
+    if x1_guess is not None:
+        point = three_phase_points(system, P_Pa, x1_guess[0], x1_guess[1], T_guess_K)
+        if point.converged[0] and abs(point.T_K[0] - T_guess_K) <= 40.0:
+            return ThreePhase(T_K=float(point.T_K[0]), P_Pa=P_Pa, x1_a=float(point.x1_a[0]),
+                              x1_b=float(point.x1_b[0]), y1=float(point.y1[0]))
+
     def mismatch(T: float) -> float:
         split = binodal(system.activity, T)
         if split is None:
