@@ -81,7 +81,8 @@ def _newton(equations: Callable[[FloatArray, FloatArray], FloatArray], u0: Float
             step[:, j] += h[:, j]
             J[:, :, j] = (equations(step, Pa) - f) / h[:, j, None]
         jac[idx] = J
-        finite: BoolArray = np.isfinite(f).all(axis=1) & np.isfinite(J).all(axis=(1, 2))
+        finite = np.asarray(np.isfinite(f).all(axis=1) & np.isfinite(J).all(axis=(1, 2)),
+                            dtype=bool)
         small = finite & (np.abs(f).max(axis=1) <= _RESIDUAL_TOL)
         delta = np.zeros_like(ua)
         determinant = np.asarray(np.linalg.det(np.where(finite[:, None, None], J, 1.0)))
