@@ -107,18 +107,94 @@ def total_reflux_stages(y_star: Equilibrium, x_bottom: float, x_top: float
 
     ``y_star`` maps liquid to vapour compositions of the top component.  Returns
     None when the count exceeds :data:`MAX_STAGES` or a stage makes no progress.
+
+    The stage compositions ``x_(n+1) = y*(x_n)`` are found all at once: a first
+    sequence from the equilibrium curve tabulated on a grid (interpolated in
+    log-odds), then Newton sweeps on the whole sequence (each one vectorised call
+    of ``y_star`` and a forward substitution) until it satisfies every stage's
+    equation to round-off.  The count is then read off exactly as stage-by-stage
+    stepping would; where the sequence cannot be settled that way, it is stepped.
+
+    Constant α = 2.5, 95 % from 5 %: Fenske's 6.4269 (see :func:`fenske_stages`).
+
+    >>> y = lambda x: 2.5 * x / (1.0 + 1.5 * x)
+    >>> round(total_reflux_stages(y, 0.05, 0.95), 4)
+    6.4269
     """
+    sequence = _stage_sequence(y_star, x_bottom, x_top)
     x = x_bottom
-    target = _log_odds(x_top)
-    for stage in range(MAX_STAGES):
+    start = 0
+    if sequence is not None:
+        ys = y_star(sequence)
+        for stage in range(sequence.size):
+            x, y = float(sequence[stage]), float(ys[stage])
+            verdict = _stage_verdict(x, y, x_top, stage)
+            if verdict is not _NEXT:
+                return verdict  # type: ignore[return-value]
+        x, start = float(ys[-1]), sequence.size
+    for stage in range(start, MAX_STAGES):
         y = float(y_star(np.array([x]))[0])
-        if not (0.0 < y < 1.0) or y <= x:
-            return None
-        if y >= x_top:
-            # fraction of this stage needed, in log-odds (exact for constant α)
-            return stage + (target - _log_odds(x)) / (_log_odds(y) - _log_odds(x))
+        verdict = _stage_verdict(x, y, x_top, stage)
+        if verdict is not _NEXT:
+            return verdict  # type: ignore[return-value]
         x = y
     return None
+
+
+_NEXT = object()
+
+
+def _stage_verdict(x: float, y: float, x_top: float, stage: int) -> object:
+    """None (no progress), the fractional count (distillate reached) or :data:`_NEXT`."""
+    if not (0.0 < y < 1.0) or y <= x:
+        return None
+    if y >= x_top:
+        # fraction of this stage needed, in log-odds (exact for constant α)
+        return stage + (_log_odds(x_top) - _log_odds(x)) / (_log_odds(y) - _log_odds(x))
+    return _NEXT
+
+
+def _stage_sequence(y_star: Equilibrium, x_bottom: float, x_top: float,
+                    grid_points: int = 201, sweeps: int = 8) -> FloatArray | None:
+    """Liquid compositions ``x_0 = x_bottom, x_1, ...`` of the stages at total reflux,
+    each ``y*`` of the one before, up to the first vapour at or above ``x_top``; None
+    when a guide or a sweep fails (the caller then steps stage by stage)."""
+    if not (0.0 < x_bottom < x_top < 1.0):
+        return None
+    L_grid = np.linspace(_log_odds(x_bottom), _log_odds(x_top), grid_points)
+    x_grid = 1.0 / (1.0 + np.exp(-L_grid))
+    with np.errstate(all="ignore"):
+        y_grid = y_star(x_grid)
+        gain = np.log(y_grid / (1.0 - y_grid)) - L_grid
+    if not (np.all(np.isfinite(gain)) and np.all(gain > 0)):
+        return None
+    # First sequence from the tabulated curve: stepping in log-odds.
+    L = [L_grid[0]]
+    while L[-1] < L_grid[-1] and len(L) <= MAX_STAGES:
+        L.append(L[-1] + float(np.interp(L[-1], L_grid, gain)))
+    guess = 1.0 / (1.0 + np.exp(-np.array(L[:-1])))
+    guess[0] = x_bottom
+    for _ in range(sweeps):
+        h = 1e-7 * np.maximum(guess, 1e-12)
+        both = y_star(np.concatenate([guess, guess + h]))
+        Y, slope = both[:guess.size], (both[guess.size:] - both[:guess.size]) / h
+        if not (np.all(np.isfinite(Y)) and np.all(np.isfinite(slope))):
+            return None
+        new = np.empty_like(guess)
+        new[0] = x_bottom
+        for n in range(guess.size - 1):
+            new[n + 1] = Y[n] + slope[n] * (new[n] - guess[n])
+        if not np.all((new > 0.0) & (new < 1.0)):
+            return None
+        change = float(np.max(np.abs(new - guess)))
+        guess = new
+        if change <= 1e-15:
+            break
+    # Exact stage equations: each liquid the vapour of the one before, to round-off.
+    Y = y_star(guess)
+    if not np.allclose(guess[1:], Y[:-1], rtol=0.0, atol=1e-14):
+        return None
+    return np.asarray(guess, dtype=float)
 
 
 def _minimum_reflux(y_star: Equilibrium, x_bottom: float, feed: float, x_top: float
