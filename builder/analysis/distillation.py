@@ -35,7 +35,6 @@ from dataclasses import dataclass, replace
 
 import numpy as np
 from numpy.typing import NDArray
-from scipy.optimize import minimize_scalar
 
 from builder.analysis.azeotropes import Azeotrope
 from builder.analysis.stability import ThreePhase
@@ -121,11 +120,11 @@ def total_reflux_stages(y_star: Equilibrium, x_bottom: float, x_top: float
     >>> round(total_reflux_stages(y, 0.05, 0.95), 4)
     6.4269
     """
-    sequence = _stage_sequence(y_star, x_bottom, x_top)
+    settled = _stage_sequence(y_star, x_bottom, x_top)
     x = x_bottom
     start = 0
-    if sequence is not None:
-        ys = y_star(sequence)
+    if settled is not None:
+        sequence, ys = settled
         for stage in range(sequence.size):
             x, y = float(sequence[stage]), float(ys[stage])
             verdict = _stage_verdict(x, y, x_top, stage)
@@ -155,10 +154,12 @@ def _stage_verdict(x: float, y: float, x_top: float, stage: int) -> object:
 
 
 def _stage_sequence(y_star: Equilibrium, x_bottom: float, x_top: float,
-                    grid_points: int = 201, sweeps: int = 8) -> FloatArray | None:
+                    grid_points: int = 201, sweeps: int = 8
+                    ) -> tuple[FloatArray, FloatArray] | None:
     """Liquid compositions ``x_0 = x_bottom, x_1, ...`` of the stages at total reflux,
-    each ``y*`` of the one before, up to the first vapour at or above ``x_top``; None
-    when a guide or a sweep fails (the caller then steps stage by stage)."""
+    each ``y*`` of the one before, up to the first vapour at or above ``x_top``, and
+    their vapours; None when a guide or a sweep fails (the caller then steps stage by
+    stage)."""
     if not (0.0 < x_bottom < x_top < 1.0):
         return None
     L_grid = np.linspace(_log_odds(x_bottom), _log_odds(x_top), grid_points)
@@ -174,6 +175,7 @@ def _stage_sequence(y_star: Equilibrium, x_bottom: float, x_top: float,
         L.append(L[-1] + float(np.interp(L[-1], L_grid, gain)))
     guess = 1.0 / (1.0 + np.exp(-np.array(L[:-1])))
     guess[0] = x_bottom
+    change = np.inf
     for _ in range(sweeps):
         h = 1e-7 * np.maximum(guess, 1e-12)
         both = y_star(np.concatenate([guess, guess + h]))
@@ -188,13 +190,40 @@ def _stage_sequence(y_star: Equilibrium, x_bottom: float, x_top: float,
             return None
         change = float(np.max(np.abs(new - guess)))
         guess = new
-        if change <= 1e-15:
+        if change <= 1e-14:
+            # Y, the vapours of the previous sweep's liquids, are those of these to
+            # round-off; each liquid is the vapour of the one before.
             break
-    # Exact stage equations: each liquid the vapour of the one before, to round-off.
-    Y = y_star(guess)
-    if not np.allclose(guess[1:], Y[:-1], rtol=0.0, atol=1e-14):
-        return None
-    return np.asarray(guess, dtype=float)
+    Y = y_star(guess) if change > 1e-14 else Y
+    if np.allclose(guess[1:], Y[:-1], rtol=0.0, atol=1e-14):
+        return np.asarray(guess, dtype=float), np.asarray(Y, dtype=float)
+    return None
+
+
+def _maximum(f: Equilibrium, a: float, b: float, points: int = 129, rounds: int = 2
+             ) -> tuple[float, float]:
+    """Where the smooth ``f`` has its maximum in ``[a, b]``, and the value there.
+
+    Vectorised grid refinement (each round one call of ``f`` on ``points`` points,
+    narrowing to the best point's neighbours) and a parabola through the last three
+    points; the location of a smooth maximum is fixed only to about 1e-8 by round-off,
+    its value to round-off.
+    """
+    for _ in range(rounds):
+        xs = np.linspace(a, b, points)
+        values = f(xs)
+        i = int(np.nanargmax(values))
+        a, b = float(xs[max(i - 1, 0)]), float(xs[min(i + 1, points - 1)])
+    best_x, best = float(xs[i]), float(values[i])
+    if 0 < i < points - 1:
+        f0, f1, f2 = values[i - 1], values[i], values[i + 1]
+        curvature = f0 - 2.0 * f1 + f2
+        if curvature < 0:
+            vertex = best_x + 0.5 * (xs[1] - xs[0]) * (f0 - f2) / curvature
+            at = float(f(np.array([vertex]))[0])
+            if a <= vertex <= b and at >= best:
+                return float(vertex), at
+    return best_x, best
 
 
 def _minimum_reflux(y_star: Equilibrium, x_bottom: float, feed: float, x_top: float
@@ -203,27 +232,26 @@ def _minimum_reflux(y_star: Equilibrium, x_bottom: float, feed: float, x_top: fl
     grid_r = np.linspace(feed, x_top, 801)[:-1]
     grid_s = np.linspace(x_bottom, feed, 801)[1:]
 
-    def rect_slope(x: float) -> float:  # L/V the rectifying line needs at liquid x
-        return float((x_top - y_star(np.array([x]))[0]) / (x_top - x))
+    def rect_slope(x: FloatArray) -> FloatArray:  # L/V the rectifying line needs at liquid x
+        return np.asarray((x_top - y_star(x)) / (x_top - x), dtype=float)
 
-    def strip_limit(x: float) -> float:  # highest y at the feed allowed by liquid x
-        y = float(y_star(np.array([x]))[0])
-        return x_bottom + (y - x_bottom) * (feed - x_bottom) / (x - x_bottom)
+    def strip_limit(x: FloatArray) -> FloatArray:  # highest y at the feed allowed by liquid x
+        return np.asarray(x_bottom + (y_star(x) - x_bottom) * (feed - x_bottom)
+                          / (x - x_bottom), dtype=float)
 
-    slopes = (x_top - y_star(grid_r)) / (x_top - grid_r)
+    both = y_star(np.concatenate([grid_r, grid_s]))
+    slopes = (x_top - both[:grid_r.size]) / (x_top - grid_r)
     k = int(np.argmax(slopes))
     LV_rect, x_rect = float(slopes[k]), float(grid_r[k])
     if 0 < k < grid_r.size - 1:
-        best = minimize_scalar(lambda x: -rect_slope(x), bounds=(grid_r[k - 1], grid_r[k + 1]),
-                               method="bounded", options={"xatol": 1e-12})
-        LV_rect, x_rect = -float(best.fun), float(best.x)
-    limits = x_bottom + (y_star(grid_s) - x_bottom) * (feed - x_bottom) / (grid_s - x_bottom)
+        x_rect, LV_rect = _maximum(rect_slope, float(grid_r[k - 1]), float(grid_r[k + 1]))
+    limits = x_bottom + (both[grid_r.size:] - x_bottom) * (feed - x_bottom) / (grid_s - x_bottom)
     j = int(np.argmin(limits))
     y_q, x_strip = float(limits[j]), float(grid_s[j])
     if 0 < j < grid_s.size - 1:
-        best = minimize_scalar(strip_limit, bounds=(grid_s[j - 1], grid_s[j + 1]),
-                               method="bounded", options={"xatol": 1e-12})
-        y_q, x_strip = float(best.fun), float(best.x)
+        x_strip, y_q = _maximum(lambda x: -strip_limit(x), float(grid_s[j - 1]),
+                                float(grid_s[j + 1]))
+        y_q = -y_q
     LV_strip = (x_top - y_q) / (x_top - feed)
     if LV_strip > LV_rect + 1e-12:
         LV, pinch, x_pinch = LV_strip, "tangent (stripping section)", x_strip
