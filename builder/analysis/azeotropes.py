@@ -114,12 +114,14 @@ def _roots(system: eq.BinarySystem, lo: FloatArray, hi: FloatArray, f_lo: FloatA
 
 def find_azeotropes(system: eq.BinarySystem, *, P_Pa: float | None = None,
                     T_K: float | None = None, grid: FloatArray | None = None,
-                    exclude: NDArray[np.bool_] | None = None) -> AzeotropeSearch:
+                    exclude: NDArray[np.bool_] | None = None,
+                    bubble: eq.EquilibriumResult | None = None) -> AzeotropeSearch:
     """Azeotropes on the isobar ``P_Pa`` or on the isotherm ``T_K`` (give one).
 
     ``exclude`` marks grid points to leave out of the search (for example
     where the homogeneous liquid is unstable); a root between excluded points
-    is not reported.
+    is not reported.  ``bubble``, when given, holds the bubble points of the grid
+    already solved at this condition (they are then not solved again).
 
     Examples
     --------
@@ -147,7 +149,7 @@ def find_azeotropes(system: eq.BinarySystem, *, P_Pa: float | None = None,
         assert T_K is not None
         return eq.bubble_pressure(system, x1, T_K)
 
-    result = solve(x)
+    result = solve(x) if bubble is None else bubble
     f = _ln_alpha(system, result)
     usable = result.converged & np.isfinite(f)
     if exclude is not None:

@@ -200,7 +200,7 @@ def _stage_sequence(y_star: Equilibrium, x_bottom: float, x_top: float,
     return None
 
 
-def _maximum(f: Equilibrium, a: float, b: float, points: int = 129, rounds: int = 2
+def _maximum(f: Equilibrium, a: float, b: float, points: int = 129, rounds: int = 1
              ) -> tuple[float, float]:
     """Where the smooth ``f`` has its maximum in ``[a, b]``, and the value there.
 
@@ -306,9 +306,13 @@ def quick_look(system: eq.BinarySystem, P_Pa: float, azeotropes: tuple[Azeotrope
         feed = min(max(requested.feed_x1, a + 0.1 * width), b - 0.1 * width)
         split = Split(distillate_x1=float("nan"), bottoms_x1=float("nan"), feed_x1=feed)
         low, high = a + 0.05 * width, b - 0.05 * width
-    # Which end of the stretch goes overhead: where the vapour is richer in it.
-    mid = np.array([0.5 * (low + high)])
-    top_is_1 = bool(y1_of_x1(mid)[0] > mid[0])
+    # Which end of the stretch goes overhead: where the vapour is richer in it.  The vapours
+    # at the split's ends, in either orientation, are solved in the same call.
+    mid = 0.5 * (low + high)
+    ends = ((low, high) if crossing else (requested.distillate_x1, requested.bottoms_x1))
+    asked = np.array([mid, *ends, *(1.0 - (1.0 - e) for e in ends)])
+    known = dict(zip(asked.tolist(), y1_of_x1(asked).tolist(), strict=True))
+    top_is_1 = bool(known[mid] > mid)
     if crossing:
         split = Split(distillate_x1=high if top_is_1 else low,
                       bottoms_x1=low if top_is_1 else high, feed_x1=split.feed_x1)
@@ -330,8 +334,12 @@ def quick_look(system: eq.BinarySystem, P_Pa: float, azeotropes: tuple[Azeotrope
         return _replace(base, reason="the feed must lie between bottoms and distillate, and "
                         "the distillate must be richer in the component that goes overhead "
                         f"(component {top} here)")
-    y_top = float(y_star(np.array([u_top]))[0])
-    y_bottom = float(y_star(np.array([u_bottom]))[0])
+    def y_star_at(u: float) -> float:
+        x1 = u if top_is_1 else 1.0 - u
+        y1 = known[x1] if x1 in known else float(y1_of_x1(np.array([x1]))[0])
+        return y1 if top_is_1 else 1.0 - y1
+
+    y_top, y_bottom = y_star_at(u_top), y_star_at(u_bottom)
     alpha_top = (y_top / (1 - y_top)) / (u_top / (1 - u_top))
     alpha_bottom = (y_bottom / (1 - y_bottom)) / (u_bottom / (1 - u_bottom))
     fenske = fenske_stages(u_top, u_bottom, math.sqrt(alpha_top * alpha_bottom))

@@ -10,12 +10,15 @@ read these records; they never compute thermodynamics themselves.
 
 from __future__ import annotations
 
+import dataclasses
+import itertools
 from dataclasses import replace
 
 import numpy as np
 from numpy.typing import NDArray
 
 from builder.analysis import curves
+from builder.analysis.azeotropes import search_grid
 from builder.analysis.checks import check_pair
 from builder.analysis.distillation import Split, quick_look
 from builder.analysis.point import system_for
@@ -27,13 +30,20 @@ from builder.analysis.record import (
     PairResults,
 )
 from builder.analysis.trace import analyse, trace_azeotrope
-from builder.analysis.volatility import volatility
+from builder.analysis.volatility import ROUND_COMPOSITIONS, volatility
 from builder.catalogue.loader import Catalogue
 from builder.catalogue.records import Component, PairRecord
+from builder.thermo import equilibrium as eq
 from builder.thermo.activity import Swapped
 
 __all__ = ["RESULTS_VERSION", "Check", "ConditionResult", "PairResults", "compute_atlas",
            "compute_condition", "compute_pair", "swapped_pair"]
+
+
+def _part(result: eq.EquilibriumResult, part: slice) -> eq.EquilibriumResult:
+    """The points ``part`` of a solved set of bubble points."""
+    return eq.EquilibriumResult(*(getattr(result, f.name)[part]
+                                  for f in dataclasses.fields(eq.EquilibriumResult)))
 
 
 def _extrapolated(pair: PairRecord, c1: Component, c2: Component,
@@ -63,8 +73,15 @@ def _condition(catalogue: Catalogue, pair: PairRecord, kind: str, value: float
     c1 = catalogue.components[pair.component1]
     c2 = catalogue.components[pair.component2]
     isobar = kind == "isobar"
-    curve = curves.isobar(system, value) if isobar else curves.isotherm(system, value)
-    phases = analyse(system, pair.model, isobar, value, curve)
+    # The curve, the azeotrope search grid and the table's round compositions: one solve.
+    parts = (curves.composition_grid(), search_grid(), ROUND_COMPOSITIONS)
+    solved = (eq.bubble_temperature if isobar else eq.bubble_pressure)(
+        system, np.concatenate(parts), value)
+    ends = np.cumsum([0] + [p.size for p in parts])
+    curve_points, search_points, table_points = (
+        _part(solved, slice(a, b)) for a, b in itertools.pairwise(ends))
+    curve = curves.from_bubble(kind, system, curve_points)
+    phases = analyse(system, pair.model, isobar, value, curve, search_points)
     warnings = list(phases.warnings)
     found = phases.azeotropes
     three_phase = phases.three_phase
@@ -86,7 +103,7 @@ def _condition(catalogue: Catalogue, pair: PairRecord, kind: str, value: float
                             "curve: the modified Raoult's law does not apply there")
     vol = volatility(system, curve.x1, curve.alpha12, drawable,
                      P_Pa=value if isobar else None, T_K=None if isobar else value,
-                     has_azeotrope=bool(found))
+                     has_azeotrope=bool(found), rows=table_points)
     look = None
     if isobar:
         light = _light_component(c1, c2, value)

@@ -49,8 +49,12 @@ class Phases:
 
 
 def analyse(system: eq.BinarySystem, model: ActivityModel, isobar: bool, value: float,
-            curve: curves.Curve) -> Phases:
-    """Liquid stability along a curve, the three-phase line and every azeotrope."""
+            curve: curves.Curve, searched: eq.EquilibriumResult | None = None) -> Phases:
+    """Liquid stability along a curve, the three-phase line and every azeotrope.
+
+    ``searched``: the bubble points of :func:`.azeotropes.search_grid` at this condition,
+    when already solved.
+    """
     warnings: list[str] = []
     liquid_stable = stability.stable(model, curve.x1, curve.T_K)
     three_phase = None
@@ -73,7 +77,8 @@ def analyse(system: eq.BinarySystem, model: ActivityModel, isobar: bool, value: 
     search = find_azeotropes(system, P_Pa=value if isobar else None,
                              T_K=None if isobar else value,
                              exclude=None if liquid_stable.all() else _search_exclusion(
-                                 system, model, value, isobar, three_phase))
+                                 system, model, value, isobar, three_phase),
+                             bubble=searched)
     found = list(search.azeotropes)
     if three_phase is not None and three_phase.heterogeneous_azeotrope:
         found.append(Azeotrope(
