@@ -162,8 +162,8 @@ def _stage_sequence(y_star: Equilibrium, x_bottom: float, x_top: float,
     stage)."""
     if not (0.0 < x_bottom < x_top < 1.0):
         return None
-    L_grid = np.linspace(_log_odds(x_bottom), _log_odds(x_top), grid_points)
-    x_grid = 1.0 / (1.0 + np.exp(-L_grid))
+    x_grid = _guide_grid(x_bottom, x_top, grid_points)
+    L_grid = np.log(x_grid / (1.0 - x_grid))
     with np.errstate(all="ignore"):
         y_grid = y_star(x_grid)
         gain = np.log(y_grid / (1.0 - y_grid)) - L_grid
@@ -175,7 +175,7 @@ def _stage_sequence(y_star: Equilibrium, x_bottom: float, x_top: float,
         L.append(L[-1] + float(np.interp(L[-1], L_grid, gain)))
     guess = 1.0 / (1.0 + np.exp(-np.array(L[:-1])))
     guess[0] = x_bottom
-    change = np.inf
+    previous = np.inf
     for _ in range(sweeps):
         h = 1e-7 * np.maximum(guess, 1e-12)
         both = y_star(np.concatenate([guess, guess + h]))
@@ -189,15 +189,39 @@ def _stage_sequence(y_star: Equilibrium, x_bottom: float, x_top: float,
         if not np.all((new > 0.0) & (new < 1.0)):
             return None
         change = float(np.max(np.abs(new - guess)))
-        guess = new
-        if change <= 1e-14:
-            # Y, the vapours of the previous sweep's liquids, are those of these to
-            # round-off; each liquid is the vapour of the one before.
-            break
-    Y = y_star(guess) if change > 1e-14 else Y
-    if np.allclose(guess[1:], Y[:-1], rtol=0.0, atol=1e-14):
-        return np.asarray(guess, dtype=float), np.asarray(Y, dtype=float)
+        if change <= 1e-8 and change < previous:
+            # Newton converges quadratically: a step of at most 1e-8, smaller than the one
+            # before, leaves an error of the order of its square (1e-16).  Each stage's
+            # vapour is the next liquid; the last one's is Newton-updated alike.
+            vapours = np.append(new[1:], Y[-1] + slope[-1] * (new[-1] - guess[-1]))
+            return np.asarray(new, dtype=float), np.asarray(vapours, dtype=float)
+        guess, previous = new, change
     return None
+
+
+def _guide_grid(x_bottom: float, x_top: float, points: int = 201) -> FloatArray:
+    """Compositions evenly spaced in log-odds from ``x_bottom`` to ``x_top``."""
+    L = np.linspace(_log_odds(x_bottom), _log_odds(x_top), points)
+    return np.asarray(1.0 / (1.0 + np.exp(-L)), dtype=float)
+
+
+def _reflux_grids(x_bottom: float, feed: float, x_top: float) -> tuple[FloatArray, FloatArray]:
+    """Liquid compositions searched for the rectifying and the stripping pinch."""
+    return np.linspace(feed, x_top, 801)[:-1], np.linspace(x_bottom, feed, 801)[1:]
+
+
+def _prefetched(y_star: Equilibrium, *grids: FloatArray) -> Equilibrium:
+    """``y_star`` with its values on ``grids`` solved in one call beforehand."""
+    xs = np.concatenate(grids)
+    table = dict(zip(xs.tolist(), y_star(xs).tolist(), strict=True))
+
+    def lookup(u: FloatArray) -> FloatArray:
+        values = np.asarray(u, dtype=float).tolist()
+        if all(v in table for v in values):
+            return np.array([table[v] for v in values], dtype=float)
+        return y_star(u)
+
+    return lookup
 
 
 def _maximum(f: Equilibrium, a: float, b: float, points: int = 129, rounds: int = 1
@@ -229,8 +253,7 @@ def _maximum(f: Equilibrium, a: float, b: float, points: int = 129, rounds: int 
 def _minimum_reflux(y_star: Equilibrium, x_bottom: float, feed: float, x_top: float
                     ) -> tuple[float, str, float]:
     """(R_min, pinch kind, pinch liquid composition) for a saturated-liquid feed."""
-    grid_r = np.linspace(feed, x_top, 801)[:-1]
-    grid_s = np.linspace(x_bottom, feed, 801)[1:]
+    grid_r, grid_s = _reflux_grids(x_bottom, feed, x_top)
 
     def rect_slope(x: FloatArray) -> FloatArray:  # L/V the rectifying line needs at liquid x
         return np.asarray((x_top - y_star(x)) / (x_top - x), dtype=float)
@@ -343,8 +366,11 @@ def quick_look(system: eq.BinarySystem, P_Pa: float, azeotropes: tuple[Azeotrope
     alpha_top = (y_top / (1 - y_top)) / (u_top / (1 - u_top))
     alpha_bottom = (y_bottom / (1 - y_bottom)) / (u_bottom / (1 - u_bottom))
     fenske = fenske_stages(u_top, u_bottom, math.sqrt(alpha_top * alpha_bottom))
-    stages = total_reflux_stages(y_star, u_bottom, u_top)
-    R_min, pinch, u_pinch = _minimum_reflux(y_star, u_bottom, u_feed, u_top)
+    # The stage guide and both pinch searches' grids: one solve.
+    solved = _prefetched(y_star, _guide_grid(u_bottom, u_top),
+                         *_reflux_grids(u_bottom, u_feed, u_top))
+    stages = total_reflux_stages(solved, u_bottom, u_top)
+    R_min, pinch, u_pinch = _minimum_reflux(solved, u_bottom, u_feed, u_top)
     reason = "" if stages is not None else (
         f"more than {MAX_STAGES} stages at total reflux: not practical")
     return _replace(base, stages_min=stages, fenske_stages=fenske, alpha_top=alpha_top,

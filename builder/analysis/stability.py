@@ -31,9 +31,9 @@ from scipy.optimize import brentq, fsolve
 
 from builder.analysis.phase_lines import three_phase_points
 from builder.thermo import equilibrium as eq
-from builder.thermo.activity import ActivityModel
+from builder.thermo.activity import ActivityModel, Ideal, Swapped, Wilson
 
-__all__ = ["LiquidSplit", "ThreePhase", "binodal", "mixing_gibbs_RT", "stable",
+__all__ = ["LiquidSplit", "ThreePhase", "binodal", "mixing_gibbs_RT", "one_liquid_only", "stable",
            "three_phase_isobar", "three_phase_isotherm"]
 
 
@@ -94,6 +94,20 @@ def mixing_gibbs_RT(model: ActivityModel, x1: ArrayLike, T_K: ArrayLike) -> Floa
     return np.asarray(ideal + x1 * ln_g1 + x2 * ln_g2, dtype=float)
 
 
+def one_liquid_only(model: ActivityModel) -> bool:
+    """Whether the model cannot predict two liquids at all: the ideal solution, and
+    Wilson's equation, whose ``Δg_mix`` is convex for every positive ``Λ12``, ``Λ21``
+    (Prausnitz, Lichtenthaler and de Azevedo, 3rd ed., 1999, section 6.11).
+
+    >>> from builder.thermo.activity import Margules
+    >>> one_liquid_only(Ideal()), one_liquid_only(Margules.constant(3.0, 3.0))
+    (True, False)
+    """
+    while isinstance(model, Swapped):
+        model = model.inner
+    return isinstance(model, (Ideal, Wilson))
+
+
 def stable(model: ActivityModel, x1: ArrayLike, T_K: ArrayLike) -> NDArray[np.bool_]:
     """Tangent-plane test: is the liquid ``x1`` at ``T_K`` stable (one phase)?
 
@@ -109,7 +123,7 @@ def stable(model: ActivityModel, x1: ArrayLike, T_K: ArrayLike) -> NDArray[np.bo
     T = np.broadcast_to(np.asarray(T_K, dtype=float), x.shape)
     inner = (x > 0.0) & (x < 1.0)
     result = np.ones(x.shape, dtype=bool)
-    if not inner.any():
+    if not inner.any() or one_liquid_only(model):
         return result
     xi, Ti = x[inner], T[inner]
     ln_g1, ln_g2 = model.ln_gamma(xi, Ti)
