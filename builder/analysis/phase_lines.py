@@ -111,7 +111,7 @@ class AzeotropePoints:
 
 
 def azeotrope_points(system: eq.BinarySystem, P_Pa: ArrayLike, x1_guess: ArrayLike,
-                     T_guess_K: ArrayLike, *, maxiter: int = 50) -> AzeotropePoints:
+                     T_guess_K: ArrayLike, *, maxiter: int = 20) -> AzeotropePoints:
     """Solve ``α12 = 1`` on the bubble curve at each pressure, from the given guesses.
 
     Symmetric Margules (A = 1) with equal vapour pressures has its azeotrope at
@@ -161,7 +161,7 @@ class ThreePhasePoints:
 
 def three_phase_points(system: eq.BinarySystem, P_Pa: ArrayLike, x1_a_guess: ArrayLike,
                        x1_b_guess: ArrayLike, T_guess_K: ArrayLike, *,
-                       maxiter: int = 60) -> ThreePhasePoints:
+                       maxiter: int = 20) -> ThreePhasePoints:
     """Solve for two liquids boiling together at each pressure, from the given guesses.
 
     A point converged to a single liquid (``x1_b - x1_a < 1e-6``) is not converged.
