@@ -217,8 +217,9 @@ GROUPS = Block("groups", (
           help="original UNIFAC subgroup counts, e.g. {CH3: 1, CH2: 1, OH: 1}"),
     Field("dortmund", "counts", required=False,
           help="modified UNIFAC (Dortmund) subgroup counts, e.g. {CH3: 1, CH2: 1, 'OH(P)': 1}"),
-    _source(),
-), help="UNIFAC subgroups of the component, per model variant (pairs/groups/ has the tables)")
+    _source(help="the published group definitions the assignment follows"),
+), help="UNIFAC subgroups for the predictive models, per model variant (names as spelled in "
+        "the group tables, pairs/groups/); at least one variant")
 
 PRESSURE_UNITS = ("Pa", "kPa", "bar", "mmHg", "atm", "MPa")
 
@@ -247,19 +248,6 @@ VAPOUR_PRESSURE = Block("vapour_pressure", (
         Field("E", "number", minimum=-10.0, maximum=10.0, help="exponent E"),
     ),
 }, help="vapour-pressure correlation as published, with its validity range")
-
-#: Subgroup name -> count; the names are those of the group tables (pairs/groups/), read
-#: and checked by builder/catalogue/groups.py, not field by field.
-SUBGROUP_COUNTS = Block("subgroup counts", (), help="subgroup name -> positive whole count, "
-                        "names as spelled in the group tables (pairs/groups/)")
-
-GROUPS = Block("groups", (
-    Field("unifac", "block", block=SUBGROUP_COUNTS, required=False,
-          help="subgroups of original UNIFAC, e.g. {CH3: 1, CH2: 1, OH: 1}"),
-    Field("dortmund", "block", block=SUBGROUP_COUNTS, required=False,
-          help="subgroups of modified UNIFAC (Dortmund), e.g. {CH3: 1, CH2: 1, \"OH(P)\": 1}"),
-    _source(help="the published group definitions the assignment follows"),
-), help="UNIFAC subgroups for the predictive models; at least one variant")
 
 COMPONENT = Block("component", (
     Field("id", "slug", pattern=SLUG_PATTERN, help="equal to the file name without .yaml"),
