@@ -15,11 +15,10 @@ import re
 import shutil
 from pathlib import Path
 
-import numpy as np
 import pytest
 import yaml
 
-from builder.analysis.results import PairResults, compute_pair
+from builder.analysis.results import RESULTS_VERSION, ConditionResult, PairResults, compute_pair
 from builder.analysis.stability import ThreePhase
 from builder.catalogue.loader import Catalogue
 from builder.site.assemble import AssembleError, check_output_folder
@@ -138,58 +137,39 @@ def test_settings_errors_name_the_field(tmp_path: Path, text: str, field: str) -
     assert str(path) in str(error.value)
 
 
-# -- views tolerate results with and without the newer fields --------------------------
+# -- sections whose result field is None by its documented meaning -----------------
 
 
-@dataclasses.dataclass(frozen=True)
-class _BareCondition:
-    """A condition result as the first version of builder.results made it."""
+def _without_sections(results: PairResults) -> PairResults:
+    """The same pair with no liquid split, no quick look, no trace and no checks."""
+    def strip(c: ConditionResult) -> ConditionResult:
+        return dataclasses.replace(c, three_phase=None, quicklook=None)
 
-    kind: str
-    condition: float
-    curve: object
-    drawable: np.ndarray
-    extrapolated: np.ndarray
-    azeotropes: tuple
-    azeotrope_search_complete: bool
-    volatility: object
-    warnings: tuple = ()
-    label: str = ""
-    slug: str = ""
+    return dataclasses.replace(results, isobars=tuple(strip(c) for c in results.isobars),
+                               isotherms=tuple(strip(c) for c in results.isotherms),
+                               trace=None, checks=())
 
 
-@dataclasses.dataclass(frozen=True)
-class _BarePair:
-    pair: object
-    component1: object
-    component2: object
-    isobars: tuple
-    isotherms: tuple
-    warnings: tuple = ()
-
-    @property
-    def conditions(self) -> tuple:
-        return self.isobars + self.isotherms
-
-
-def _bare(results: PairResults) -> _BarePair:
-    def strip(c: object) -> _BareCondition:
-        names = [f.name for f in dataclasses.fields(_BareCondition)]
-        return _BareCondition(**{n: getattr(c, n) for n in names})
-
-    return _BarePair(results.pair, results.component1, results.component2,
-                     tuple(strip(c) for c in results.isobars),
-                     tuple(strip(c) for c in results.isotherms), results.warnings)
-
-
-def test_pages_without_the_optional_result_fields(catalogue: Catalogue,
-                                                  small_atlas: dict[str, PairResults]) -> None:
-    bare = {pid: _bare(r) for pid, r in small_atlas.items()}
-    view, content = generate(SiteSettings(), catalogue, bare, workers=1)  # type: ignore[arg-type]
+def test_pages_leave_out_the_sections_whose_field_is_none(
+        catalogue: Catalogue, small_atlas: dict[str, PairResults]) -> None:
+    bare = {pid: _without_sections(r) for pid, r in small_atlas.items()}
+    view, content = generate(SiteSettings(), catalogue, bare, workers=1)
     page = content.files["pairs/ethanol--water.md"].decode()
     assert "Phase diagrams" in page and "Distillation quick look" not in page
     assert "Reference checks" not in page
     assert {p.id for p in view.pairs} == set(SMALL)
+
+
+def test_the_result_record_is_complete_and_versioned(
+        small_atlas: dict[str, PairResults]) -> None:
+    """Every field of the record is set by the analysis (none left to a default)."""
+    results = small_atlas["ethanol--water"]
+    assert results.version == RESULTS_VERSION
+    assert all(f.default is dataclasses.MISSING for f in dataclasses.fields(ConditionResult))
+    assert [f.name for f in dataclasses.fields(PairResults)
+            if f.default is not dataclasses.MISSING] == ["version"]
+    assert results.checks and all(c.liquid_stable.shape == c.curve.x1.shape
+                                  for c in results.conditions)
 
 
 def test_three_phase_line_is_drawn_and_tabulated(catalogue: Catalogue,

@@ -48,6 +48,8 @@ COOLPROP_HEOS = {
     "cyclopentane": "Cyclopentane", "diethyl-ether": "DiethylEther", "propane": "n-Propane",
     "n-butane": "n-Butane", "isobutane": "IsoButane", "propylene": "Propylene",
     "1-2-dichloroethane": "Dichloroethane", "1-butene": "1-Butene",
+    "n-nonane": "n-Nonane", "n-decane": "n-Decane", "n-undecane": "n-Undecane",
+    "n-dodecane": "n-Dodecane", "2-methylpentane": "Isohexane",
 }
 
 BOILING_POINT_TOLERANCE_K = 0.5

@@ -25,7 +25,7 @@ import numpy as np
 from builder.analysis.results import ConditionResult, PairResults
 from builder.catalogue.loader import Catalogue
 from builder.catalogue.records import Component
-from builder.site.context import AtlasView, PairView, behaviour, optional, summary_condition
+from builder.site.context import AtlasView, PairView, behaviour, summary_condition
 from builder.site.settings import SiteSettings
 from builder.site.text import safe_id
 from builder.thermo.vapour_pressure import Antoine, ExtendedAntoine
@@ -145,8 +145,7 @@ def _condition(result: ConditionResult, view_csv: tuple[str, str]) -> dict[str, 
         "curve_csv": view_csv[0],
         "table_csv": view_csv[1],
     }
-    for name in ("three_phase", "quicklook"):
-        value = optional(result, name)
+    for name, value in (("three_phase", result.three_phase), ("quicklook", result.quicklook)):
         if value is not None:
             data[name] = plain(value)
     return data
@@ -176,10 +175,9 @@ def pair_json(results: PairResults, view: PairView, settings: SiteSettings) -> d
                        for r, v in zip(results.conditions, view.conditions, strict=True)],
         "warnings": list(view.warnings),
     }
-    for name in ("trace", "checks"):
-        value = optional(results, name)
-        if value is not None:
-            data[name] = plain(value)
+    if results.trace is not None:
+        data["trace"] = plain(results.trace)
+    data["checks"] = plain(results.checks)
     return data
 
 
