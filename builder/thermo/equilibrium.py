@@ -243,8 +243,8 @@ def _phi(system: BinarySystem, y1: FloatArray, T: FloatArray, P: FloatArray
 
 def _reshape(result: EquilibriumResult, shape: tuple[int, ...]) -> EquilibriumResult:
     values = {f.name: getattr(result, f.name) for f in fields(result)}
-    return EquilibriumResult(**{k: None if v is None else np.reshape(v, shape)
-                                for k, v in values.items()})
+    reshaped = {k: None if v is None else np.reshape(v, shape) for k, v in values.items()}
+    return EquilibriumResult(**reshaped)  # type: ignore[arg-type]
 
 
 def bubble_pressure(system: BinarySystem, x1: ArrayLike, T_K: ArrayLike) -> EquilibriumResult:
