@@ -13,6 +13,8 @@ from __future__ import annotations
 from dataclasses import dataclass
 from typing import TYPE_CHECKING
 
+from builder.analysis import curves
+
 if TYPE_CHECKING:
     from builder.analysis.results import PairResults
 
@@ -39,7 +41,7 @@ def check_pair(results: PairResults) -> tuple[Check, ...]:
     """Convergence, recorded azeotropes, zeotropy and liquid splitting of one pair."""
     checks: list[Check] = []
     for condition in results.conditions:
-        failed = int((~condition.curve.converged).sum())
+        failed = curves.unconverged(condition.curve)
         checks.append(Check(
             name=f"curve converges ({condition.kind} {condition.label})",
             passed=failed == 0 and condition.azeotrope_search_complete,

@@ -19,6 +19,7 @@ from numpy.typing import ArrayLike
 from builder.catalogue.loader import Catalogue
 from builder.catalogue.lookup import find_pair
 from builder.catalogue.records import Component, PairRecord
+from builder.catalogue.vapour import PairVapour, vapour_model_for
 from builder.thermo import equilibrium as eq
 
 __all__ = ["POINT_KINDS", "PointAnswer", "mass_to_mole", "mole_to_mass", "solve_point",
@@ -57,8 +58,9 @@ def mole_to_mass(x1: float, M1: float, M2: float) -> float:
 
 def system_for(pair: PairRecord, catalogue: Catalogue, swapped: bool = False) -> eq.BinarySystem:
     """The equilibrium system of a pair, in the record's order or swapped."""
-    system = eq.BinarySystem(catalogue.components[pair.component1].vapour_pressure,
-                             catalogue.components[pair.component2].vapour_pressure, pair.model)
+    c1, c2 = catalogue.components[pair.component1], catalogue.components[pair.component2]
+    vapour = vapour_model_for(pair.vapour or PairVapour(model=""), c1, c2)
+    system = eq.BinarySystem(c1.vapour_pressure, c2.vapour_pressure, pair.model, vapour)
     return system.swapped() if swapped else system
 
 

@@ -24,6 +24,7 @@ from typing import Any, TypeVar
 
 import yaml
 
+from builder.catalogue import vapour as vapour_fields
 from builder.catalogue.records import (
     PAIR_SEPARATOR,
     SLUG,
@@ -36,6 +37,7 @@ from builder.catalogue.records import (
 )
 from builder.errors import CatalogueError, CatalogueErrors
 from builder.thermo import activity as act
+from builder.thermo.cubic import EquationOfStateLiquid
 from builder.thermo.units import (
     GAS_CONSTANT_J_PER_MOL_K,
     UnitError,
@@ -372,6 +374,11 @@ def _load_component(entry: _Entry, references: Mapping[str, Reference]) -> Compo
         uniquac_source = _source(uniquac, "source", references)
         uniquac.finish()
 
+    virial_block = entry.child("virial", None)
+    virial = None if virial_block is None else vapour_fields.component_virial(
+        virial_block, values.get("critical_temperature", math.nan),
+        values.get("critical_pressure", math.nan), _source, references)
+
     vp_block = entry.child("vapour_pressure")
     vapour_pressure = vp_source = None
     if vp_block is not None:
@@ -398,6 +405,7 @@ def _load_component(entry: _Entry, references: Mapping[str, Reference]) -> Compo
         vapour_pressure=vapour_pressure, vapour_pressure_source=vp_source,
         constants_sources=sources, hazard=hazard, hazard_source=hazard_source,
         uniquac_r=r, uniquac_q=q, uniquac_source=uniquac_source, file=entry.file,
+        virial=virial,
     )
 
 
@@ -569,8 +577,14 @@ def _load_pair(entry: _Entry, components: Mapping[str, Component],
         entry.fail("id", f"the two component ids joined by '{PAIR_SEPARATOR}' "
                    f"({PAIR_SEPARATOR.join(ids)!r})", pid)
 
-    model_block = entry.child("activity")
-    model = None
+    pair_vapour = vapour_fields.pair_vapour(entry.child("vapour", None), _source, references,
+                                            tuple(QUALITIES))
+    cubic = pair_vapour.model == "peng-robinson"
+    model_block = entry.child("activity", None if cubic else ...)
+    if cubic and model_block is not None:
+        model_block.fail("", "no activity block (a peng-robinson pair takes both phases from "
+                         "the equation of state)", "an activity block")
+    model: act.ActivityModel | None = None
     kind = ""
     T_min = T_max = math.nan
     source: Source | None = None
@@ -608,6 +622,11 @@ def _load_pair(entry: _Entry, components: Mapping[str, Component],
         isotherms = _quantity_list(publish, "isotherms", "temperature", [])
         publish.finish()
 
+    if cubic and pair_vapour.kij is not None:
+        model, kind, source = EquationOfStateLiquid(pair_vapour.kij), "peng-robinson", \
+            pair_vapour.source
+        quality, T_min, T_max = pair_vapour.quality, pair_vapour.T_min_K, pair_vapour.T_max_K
+        published = {"k12": f"{pair_vapour.kij:g}"}
     recorded = _recorded(entry, references)
     split = _split(entry)
     notes = entry.text("notes", "")
@@ -620,7 +639,7 @@ def _load_pair(entry: _Entry, components: Mapping[str, Component],
         id=pid, component1=first, component2=second, model=model, model_kind=kind,
         published_parameters=published, T_min_K=T_min, T_max_K=T_max, source=source,
         quality=quality, isobars_Pa=isobars, isotherms_K=isotherms, recorded=recorded,
-        notes=notes, file=entry.file, tags=tags, split_x1=split,
+        notes=notes, file=entry.file, tags=tags, split_x1=split, vapour=pair_vapour,
     )
 
 

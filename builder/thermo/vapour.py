@@ -51,8 +51,10 @@ Pair = tuple[FloatArray, FloatArray]
 class VapourModel(Protocol):
     """What the γ–φ solvers need from a vapour model."""
 
-    #: Short id shown on pages and in JSON: ``ideal-gas``, ``virial``, ``associating``.
-    name: str
+    @property
+    def name(self) -> str:
+        """Short id shown on pages and in JSON: ``ideal-gas``, ``virial``, ``peng-robinson``."""
+        ...
 
     def ln_phi(self, y1: ArrayLike, T_K: ArrayLike, P_Pa: ArrayLike) -> Pair:
         """``ln φ_i`` of the two components in a vapour of ``y1`` at ``T_K``, ``P_Pa``."""

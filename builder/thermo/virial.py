@@ -54,13 +54,16 @@ TSONOPOULOS_CLASSES = {
     "ester": "a = -2.14e-4 μr - 4.308e-21 μr^8, b = 0",
     "carboxylic-acid": "a = -2.14e-4 μr - 4.308e-21 μr^8, b = 0 (the physical part; "
                        "dimerisation is treated chemically)",
+    "other-polar": "a = -2.14e-4 μr - 4.308e-21 μr^8, b = 0 (the rule of the polar, "
+                   "non-hydrogen-bonding classes, applied by analogy; e.g. pyridine)",
     "alkyl-halide": "a = -2.188e-4 μr^4 - 7.831e-21 μr^8, b = 0",
     "alkanol": "a = 0.0878, b = 0.00908 + 0.0006957 μr",
     "methanol": "a = 0.0878, b = 0.0525",
     "water": "a = -0.0109, b = 0",
 }
 
-_KETONE_LIKE = ("ketone", "aldehyde", "alkyl-nitrile", "ether", "ester", "carboxylic-acid")
+_KETONE_LIKE = ("ketone", "aldehyde", "alkyl-nitrile", "ether", "ester", "carboxylic-acid",
+                "other-polar")
 
 
 def reduced_dipole(dipole_debye: float, Tc_K: float, Pc_Pa: float) -> float:
