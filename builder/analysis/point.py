@@ -68,7 +68,7 @@ def validity_warnings(pair: PairRecord, components: tuple[Component, Component],
                       T_K: float) -> list[str]:
     """Plain-words warnings for a temperature outside what the data support."""
     warnings = []
-    for component in components:
+    for component in components if pair.model_kind != "peng-robinson" else ():
         vp = component.vapour_pressure
         if not (vp.T_min_K <= T_K <= vp.T_max_K):
             warnings.append(
@@ -102,6 +102,8 @@ class PointAnswer:
     alpha12: float
     converged: bool
     warnings: list[str] = field(default_factory=list)
+    vapour_model: str = "ideal-gas"
+    phi: tuple[float, float] = (1.0, 1.0)  # vapour fugacity coefficients
 
     def to_json(self) -> dict[str, Any]:
         """The stable JSON object of ``atlas calc ... --json``."""
@@ -111,6 +113,7 @@ class PointAnswer:
             "pair": self.pair.id,
             "components": [c.id for c in self.components],
             "model": self.pair.model.name,
+            "vapour_model": self.vapour_model,
             "T_K": self.T_K,
             "P_Pa": self.P_Pa,
             "x": list(self.x),
@@ -118,6 +121,7 @@ class PointAnswer:
             "x_mass": _mass_pair(self.x[0], M),
             "y_mass": _mass_pair(self.y[0], M),
             "gamma": list(self.gamma),
+            "phi": list(self.phi),
             "K": list(self.K),
             "alpha12": self.alpha12,
             "converged": self.converged,
@@ -169,4 +173,6 @@ def solve_point(catalogue: Catalogue, first: str, second: str, kind: str, *,
         x=(x1, 1.0 - x1), y=(y1, 1.0 - y1),
         gamma=(float(result.gamma1[0]), float(result.gamma2[0])),
         K=(K1, K2), alpha12=K1 / K2, converged=converged, warnings=warnings,
+        vapour_model=system.vapour.name,
+        phi=(float(result.phi1[0]), float(result.phi2[0])),
     )

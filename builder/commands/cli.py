@@ -139,7 +139,8 @@ def _point_table(answer: point.PointAnswer, show_mass: bool = False) -> str:
                  else format_temperature(answer.T_K))
     lines = [
         f"{point.POINT_KINDS[answer.kind]} of {c1.name} (1) + {c2.name} (2) at {condition}",
-        f"model: {answer.pair.model.name} (parameter quality: {answer.pair.quality})",
+        f"model: {answer.pair.model.name} (parameter quality: {answer.pair.quality}); "
+        f"vapour: {answer.vapour_model}",
         "",
         f"  {'T':<26}{format_temperature(answer.T_K)}",
         f"  {'P':<26}{format_pressure(answer.P_Pa)}",
@@ -149,6 +150,7 @@ def _point_table(answer: point.PointAnswer, show_mass: bool = False) -> str:
         ("liquid x (mol/mol)", answer.x),
         ("vapour y (mol/mol)", answer.y),
         ("activity coeff. γ", answer.gamma),
+        ("vapour fugacity coeff. φ", answer.phi),
         ("K-value y/x", answer.K),
     ]
     if show_mass:
