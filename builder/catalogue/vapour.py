@@ -37,7 +37,7 @@ from builder.thermo.vapour import IDEAL_GAS, VapourModel, VirialComponent, Viria
 from builder.thermo.virial import TSONOPOULOS_CLASSES, tsonopoulos_polar_parameters
 
 __all__ = ["VAPOUR_MODELS", "PairVapour", "VirialConstants", "component_virial", "pair_vapour",
-           "vapour_model_for"]
+           "vapour_model_for", "vapour_text"]
 
 #: Vapour treatments a pair may name, and when each applies.
 VAPOUR_MODELS = {
@@ -165,6 +165,15 @@ def pair_vapour(entry: Any, read_source: SourceReader, references: Mapping[str, 
     entry.finish()
     return PairVapour(model=model, kij=kij, source=source, quality=quality, T_min_K=T_min,
                       T_max_K=T_max, given=True)
+
+
+def vapour_text(name: str) -> str:
+    """The vapour treatment in words, for pages.
+
+    >>> vapour_text("ideal-gas")
+    "ideal-gas vapour (modified Raoult's law); low pressure only"
+    """
+    return VAPOUR_MODELS.get(name, name)
 
 
 def vapour_model_for(vapour: PairVapour, c1: Component, c2: Component) -> VapourModel:

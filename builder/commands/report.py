@@ -99,7 +99,8 @@ def run(args: argparse.Namespace, catalogue: Catalogue) -> int:
     result = compute_condition(catalogue, pair, kind, args.P if args.P is not None else args.T,
                                swapped=swapped, split_x1=split)
     data = {"analysis": args.kind, "pair": pair.id, "components": [c1.id, c2.id],
-            "model": pair.model.name, **condition_json(result, args.kind)}
+            "model": pair.model.name, "vapour_model": result.curve.vapour_model,
+            **condition_json(result, args.kind)}
     if getattr(args, "trace", False):
         if args.kind != "azeotrope" or kind != "isobar":
             raise AtlasError("--trace goes with azeotrope at a pressure (--P)")
