@@ -350,3 +350,45 @@ def test_ideal_gas_path_is_unchanged() -> None:
     r = eq.bubble_pressure(system, np.array([0.3]), 350.0)
     expected = 0.3 * p1.pressure_Pa(350.0) + 0.7 * p2.pressure_Pa(350.0)
     assert r.P_Pa[0] == expected and r.phi1[0] == 1.0
+
+
+def test_dimerising_vapour_true_species_against_a_direct_solve() -> None:
+    """Two dimerising acids: the true-species equilibrium solved afresh with scipy's fsolve
+    (reference: the chemical-theory equations as written by Marek and Standart, 1954)."""
+    from scipy.optimize import fsolve
+
+    from builder.thermo.association import dimer_monomer_fractions
+
+    P, k11, k22 = 1.0e5, 3.0e-5, 1.2e-5
+    k12 = 2.0 * np.sqrt(k11 * k22)
+    for y1 in (0.1, 0.4, 0.8):
+        def equations(z: np.ndarray, y1: float = y1) -> list[float]:
+            a, b = z
+            d11, d22, d12 = k11 * P * a * a, k22 * P * b * b, k12 * P * a * b
+            n1, n2 = a + 2 * d11 + d12, b + 2 * d22 + d12
+            return [a + b + d11 + d22 + d12 - 1.0, n1 / (n1 + n2) - y1]
+
+        ref = fsolve(equations, [0.3, 0.3], xtol=1e-14)
+        a, b = dimer_monomer_fractions(y1, P, k11, k22, k12)
+        np.testing.assert_allclose([float(a), float(b)], ref, rtol=1e-9)
+
+
+def test_associating_vapour_pure_ends_are_the_vapour_pressures() -> None:
+    """With a dimerising vapour the pure acid still boils at its vapour pressure (φ/φsat = 1
+    there), while its vapour fugacity coefficient is far below 1 (common practice)."""
+    from builder.thermo.association import DimerisingVapour
+    from builder.thermo.vapour_pressure import Antoine
+
+    acid = Antoine(A=22.0, B=4300.0, C=0.0, T_min_K=250.0, T_max_K=500.0)
+    other = Antoine(A=23.0, B=4700.0, C=0.0, T_min_K=250.0, T_max_K=500.0)
+    vapour = DimerisingVapour(A=(-12.5, -np.inf), B=(3166.0, 0.0),
+                              liquid_volume_m3_per_mol=(5.7e-5, 1.8e-5))
+    system = eq.BinarySystem(acid, other, Ideal(), vapour)
+    r = eq.bubble_pressure(system, np.array([0.0, 0.5, 1.0]), 380.0)
+    assert r.converged.all()
+    np.testing.assert_allclose(r.P_Pa[[0, 2]], [other.pressure_Pa(380.0),
+                                                acid.pressure_Pa(380.0)], rtol=1e-10)
+    assert r.phi1[2] < 0.7
+    t = eq.bubble_temperature(system, np.array([0.3]), 101325.0)
+    back = eq.dew_temperature(system, t.y1, 101325.0)
+    assert back.x1[0] == pytest.approx(0.3, abs=1e-8)

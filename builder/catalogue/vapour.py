@@ -6,13 +6,14 @@ Component (optional block, needed by the default virial vapour)::
       class: ketone                 # a Tsonopoulos class (builder.thermo.virial)
       dipole_moment: 2.9 D          # debye; needed by the polar classes that use it
       critical_volume: 213 cm3/mol
+      dimerisation: {A: -12.5454, B: 3166 K, source: {...}}   # acids: log10(K/Pa⁻¹) = A + B/T
       source: {ref: ..., where: ...}   # or {value: ..., source: ...} per value
 
 Pair (optional block; default ``virial`` when both components have virial
 constants, else ``ideal-gas``)::
 
     vapour:
-      model: virial                 # ideal-gas, virial, peng-robinson
+      model: virial                 # ideal-gas, virial, associating, peng-robinson
       kij: 0.0033                   # peng-robinson: required; virial: optional cross k12
       T_range: [250 K, 420 K]       # peng-robinson: where the kij was fitted
       quality: unverified           # peng-robinson: as the activity qualities
@@ -30,7 +31,10 @@ from collections.abc import Callable, Mapping
 from dataclasses import dataclass
 from typing import Any
 
+import numpy as np
+
 from builder.catalogue.records import Component, Source
+from builder.thermo.association import DimerisingVapour
 from builder.thermo.cubic import CubicMixture
 from builder.thermo.units import UnitError, split_quantity
 from builder.thermo.vapour import IDEAL_GAS, VapourModel, VirialComponent, VirialVapour
@@ -46,6 +50,9 @@ VAPOUR_MODELS = {
               "the default up to moderate pressure",
     "peng-robinson": "Peng–Robinson equation of state for both phases (φ–φ); light "
                      "hydrocarbons and gases at high pressure, up to the critical region",
+    "associating": "chemical theory of vapour dimerisation (carboxylic acids: self- and "
+                   "cross-dimers) with Poynting factors (γ–φ); only with activity parameters "
+                   "regressed with it",
 }
 
 #: Classes whose polar parameter needs the dipole moment.
@@ -56,7 +63,7 @@ SourceReader = Callable[..., "Source | None"]
 
 @dataclass(frozen=True)
 class VirialConstants:
-    """A component's constants for its second virial coefficient."""
+    """A component's constants for its second virial coefficient (and its dimerisation)."""
 
     species_class: str
     dipole_debye: float
@@ -64,6 +71,9 @@ class VirialConstants:
     a: float
     b: float
     sources: dict[str, Source]
+    #: ``log10(K / Pa⁻¹) = A + B/T`` of vapour dimerisation (carboxylic acids), or None.
+    dimerisation_A: float | None = None
+    dimerisation_B_K: float | None = None
 
 
 @dataclass(frozen=True)
@@ -117,6 +127,15 @@ def component_virial(entry: Any, Tc_K: float, Pc_Pa: float, read_source: SourceR
             entry.fail(key, "a source (a 'source' block here or {value, source})", raw)
         else:
             sources[key] = chosen
+    dimer_A = dimer_B = None
+    dimer = entry.child("dimerisation", None)
+    if dimer is not None:
+        dimer_A = dimer.number("A")
+        raw_B = dimer.raw("B", expected="a temperature coefficient such as '3166 K'")
+        dimer_B = _kelvin(dimer, "B", raw_B)
+        if read_source(dimer, "source", references) is None:
+            dimer_A = None
+        dimer.finish()
     entry.used.add("critical_volume")
     if "critical_volume" not in values:
         entry.fail("critical_volume", "a critical volume with a unit, such as '213 cm3/mol'",
@@ -129,7 +148,20 @@ def component_virial(entry: Any, Tc_K: float, Pc_Pa: float, read_source: SourceR
         return None
     dipole = values.get("dipole_moment", 0.0)
     a, b = tsonopoulos_polar_parameters(species_class, dipole, Tc_K, Pc_Pa)
-    return VirialConstants(species_class, dipole, values["critical_volume"], a, b, sources)
+    return VirialConstants(species_class, dipole, values["critical_volume"], a, b, sources,
+                           dimer_A, dimer_B)
+
+
+def _kelvin(entry: Any, name: str, raw: Any) -> float:
+    if isinstance(raw, str):
+        try:
+            number, unit = split_quantity(raw)
+        except UnitError:
+            unit = ""
+        if unit == "K":
+            return number
+    entry.fail(name, "a coefficient in K, such as '3166 K' (log10(K/Pa⁻¹) = A + B/T)", raw)
+    return math.nan
 
 
 def pair_vapour(entry: Any, read_source: SourceReader, references: Mapping[str, Any],
@@ -183,9 +215,19 @@ def vapour_model_for(vapour: PairVapour, c1: Component, c2: Component) -> Vapour
         return CubicMixture((c1.critical_temperature_K, c2.critical_temperature_K),
                             (c1.critical_pressure_Pa, c2.critical_pressure_Pa),
                             (c1.acentric_factor, c2.acentric_factor), vapour.kij or 0.0)
+    if model == "associating" and c1.virial and c2.virial:
+        return DimerisingVapour(
+            A=(_or(c1.virial.dimerisation_A, -np.inf), _or(c2.virial.dimerisation_A, -np.inf)),
+            B=(_or(c1.virial.dimerisation_B_K, 0.0), _or(c2.virial.dimerisation_B_K, 0.0)),
+            liquid_volume_m3_per_mol=(c1.liquid_molar_volume_m3_per_mol,
+                                      c2.liquid_molar_volume_m3_per_mol))
     if model == "virial" and c1.virial and c2.virial:
         return VirialVapour(_virial_component(c1), _virial_component(c2), vapour.kij)
     return IDEAL_GAS
+
+
+def _or(value: float | None, default: float) -> float:
+    return default if value is None else value
 
 
 def _virial_component(c: Component) -> VirialComponent:

@@ -204,8 +204,11 @@ def _partial_pressures(
 
 
 def _correction(system: BinarySystem, y1: FloatArray, T: FloatArray, P: FloatArray) -> LnC:
-    return ln_correction(system.vapour, y1, T, P, system.psat1.pressure_Pa(T),
-                         system.psat2.pressure_Pa(T))
+    """``ln c_i``, capped where a bracket probe lands far outside the virial's range (a very
+    low trial temperature makes B, and with it the correction, diverge)."""
+    c1, c2 = ln_correction(system.vapour, y1, T, P, system.psat1.pressure_Pa(T),
+                           system.psat2.pressure_Pa(T))
+    return np.clip(c1, -50.0, 50.0), np.clip(c2, -50.0, 50.0)
 
 
 def _bubble_vapour(
