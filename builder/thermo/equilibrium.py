@@ -34,7 +34,13 @@ from numpy.typing import ArrayLike, NDArray
 
 from builder.thermo.activity import ActivityModel, Swapped
 from builder.thermo.solvers import Function, expand_bracket, solve_bracketed
-from builder.thermo.vapour import IDEAL_GAS, IdealGas, VapourModel, ln_correction
+from builder.thermo.vapour import (
+    IDEAL_GAS,
+    IdealGas,
+    VapourModel,
+    correction_at,
+    ln_correction,
+)
 from builder.thermo.vapour_pressure import VapourPressure
 
 __all__ = [
@@ -53,7 +59,7 @@ LnC = tuple[FloatArray, FloatArray]
 
 #: Successive-substitution limits of the real-vapour loops (tolerances in y and ln P).
 _SUBSTITUTIONS = 200
-_SUBSTITUTION_TOL = 1e-13
+_SUBSTITUTION_TOL = 1e-12
 
 
 @dataclass(frozen=True)
@@ -226,8 +232,11 @@ def _bubble_vapour(
         return p1, p2, ln_g1, ln_g2, y, ok
     base1, base2 = p1, p2
     ok = np.zeros_like(y, dtype=bool)
+    correction = correction_at(system.vapour, T, P, system.psat1.pressure_Pa(T),
+                               system.psat2.pressure_Pa(T))
     for _ in range(_SUBSTITUTIONS):
-        c1, c2 = _correction(system, y, T, P)
+        c1, c2 = correction(y)
+        c1, c2 = np.clip(c1, -50.0, 50.0), np.clip(c2, -50.0, 50.0)
         p1, p2 = base1 * np.exp(c1), base2 * np.exp(c2)
         y_new = p1 / (p1 + p2)
         ok = np.abs(y_new - y) <= _SUBSTITUTION_TOL

@@ -26,6 +26,7 @@ References
 
 from __future__ import annotations
 
+from collections.abc import Callable
 from dataclasses import dataclass
 from typing import Protocol
 
@@ -41,6 +42,7 @@ __all__ = [
     "VapourModel",
     "VirialComponent",
     "VirialVapour",
+    "correction_at",
     "ln_correction",
 ]
 
@@ -166,6 +168,45 @@ class VirialVapour:
 
     def swapped(self) -> VirialVapour:
         return VirialVapour(self.component2, self.component1, self.kij, self.name)
+
+
+def correction_at(vapour: VapourModel, T_K: ArrayLike, P_Pa: ArrayLike, psat1_Pa: ArrayLike,
+                  psat2_Pa: ArrayLike) -> Callable[[ArrayLike], Pair]:
+    """:func:`ln_correction` at fixed (T, P) as a function of ``y1`` alone, with everything
+    that does not depend on ``y1`` (the liquid terms, the virial coefficients) done once.
+
+    >>> f = correction_at(IDEAL_GAS, 300.0, 1e5, 5e4, 2e4)
+    >>> [float(v) for v in f(0.5)]
+    [0.0, 0.0]
+    """
+    if isinstance(vapour, VirialVapour):
+        B11, B22, B12 = vapour.coefficients(T_K)
+        T = np.asarray(T_K, dtype=float)
+        P = np.asarray(P_Pa, dtype=float)
+        RT = GAS_CONSTANT_J_PER_MOL_K * T
+        scale = P / RT
+        ps1, ps2 = np.asarray(psat1_Pa, dtype=float), np.asarray(psat2_Pa, dtype=float)
+        V1 = vapour.component1.liquid_volume_m3_per_mol
+        V2 = vapour.component2.liquid_volume_m3_per_mol
+        # ln φ^sat + Poynting - (the y-independent part of ln φ), as in ln_liquid_reference
+        a1 = (B11 * ps1 + V1 * (P - ps1)) / RT - scale * B11
+        a2 = (B22 * ps2 + V2 * (P - ps2)) / RT - scale * B22
+        delta = 2.0 * B12 - B11 - B22
+        sd = scale * delta
+
+        def virial_correction(y1: ArrayLike) -> Pair:
+            y = np.asarray(y1, dtype=float)
+            return a1 - sd * (1.0 - y) ** 2, a2 - sd * y * y
+
+        return virial_correction
+
+    ref1, ref2 = vapour.ln_liquid_reference(T_K, P_Pa, psat1_Pa, psat2_Pa)
+
+    def general(y1: ArrayLike) -> Pair:
+        phi1, phi2 = vapour.ln_phi(y1, T_K, P_Pa)
+        return ref1 - phi1, ref2 - phi2
+
+    return general
 
 
 def ln_correction(vapour: VapourModel, y1: ArrayLike, T_K: ArrayLike, P_Pa: ArrayLike,

@@ -131,10 +131,14 @@ def second_virial_tsonopoulos(T_K: ArrayLike, Tc_K: ArrayLike, Pc_Pa: ArrayLike,
     -9.6797e-05
     """
     T = np.asarray(T_K, dtype=float)
-    Tr = T / np.asarray(Tc_K, dtype=float)
-    f0 = 0.1445 - 0.33 / Tr - 0.1385 / Tr**2 - 0.0121 / Tr**3 - 0.000607 / Tr**8
-    f1 = 0.0637 + 0.331 / Tr**2 - 0.423 / Tr**3 - 0.008 / Tr**8
-    reduced = f0 + np.asarray(omega) * f1 + np.asarray(a) / Tr**6 - np.asarray(b) / Tr**8
+    r1 = np.asarray(Tc_K, dtype=float) / T  # 1/T_r, powers by multiplication (fast)
+    r2 = r1 * r1
+    r3 = r2 * r1
+    r6 = r3 * r3
+    r8 = r6 * r2
+    f0 = 0.1445 - 0.33 * r1 - 0.1385 * r2 - 0.0121 * r3 - 0.000607 * r8
+    f1 = 0.0637 + 0.331 * r2 - 0.423 * r3 - 0.008 * r8
+    reduced = f0 + np.asarray(omega) * f1 + np.asarray(a) * r6 - np.asarray(b) * r8
     return np.asarray(reduced * GAS_CONSTANT_J_PER_MOL_K * np.asarray(Tc_K) / np.asarray(Pc_Pa),
                       dtype=float)
 
