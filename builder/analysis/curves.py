@@ -17,7 +17,8 @@ from numpy.typing import NDArray
 from builder.thermo import cubic_equilibrium as ce
 from builder.thermo import equilibrium as eq
 
-__all__ = ["Curve", "beyond_critical", "composition_grid", "isobar", "isotherm", "unconverged"]
+__all__ = ["Curve", "beyond_critical", "composition_grid", "from_bubble", "isobar", "isotherm",
+           "unconverged"]
 
 FloatArray = NDArray[np.float64]
 
@@ -62,7 +63,8 @@ class Curve:
         return float(self.P_Pa[0] if self.kind == "isobar" else self.T_K[0])
 
 
-def _curve(kind: str, system: eq.BinarySystem, result: eq.EquilibriumResult) -> Curve:
+def from_bubble(kind: str, system: eq.BinarySystem, result: eq.EquilibriumResult) -> Curve:
+    """The curve of bubble points already solved (``kind`` "isobar" or "isotherm")."""
     with np.errstate(invalid="ignore", divide="ignore", over="ignore"):
         alpha = result.relative_volatility(system)
     return Curve(kind=kind, x1=result.x1, y1=result.y1, T_K=result.T_K, P_Pa=result.P_Pa,
@@ -81,7 +83,7 @@ def isobar(system: eq.BinarySystem, P_Pa: float, x1: FloatArray | None = None) -
     grid = composition_grid() if x1 is None else np.asarray(x1, dtype=float)
     if system.phi_phi:
         return _cubic_curve("isobar", system, P_Pa, grid)
-    return _curve("isobar", system, eq.bubble_temperature(system, grid, P_Pa))
+    return from_bubble("isobar", system, eq.bubble_temperature(system, grid, P_Pa))
 
 
 def isotherm(system: eq.BinarySystem, T_K: float, x1: FloatArray | None = None) -> Curve:
@@ -93,7 +95,7 @@ def isotherm(system: eq.BinarySystem, T_K: float, x1: FloatArray | None = None) 
     grid = composition_grid() if x1 is None else np.asarray(x1, dtype=float)
     if system.phi_phi:
         return _cubic_curve("isotherm", system, T_K, grid)
-    return _curve("isotherm", system, eq.bubble_pressure(system, grid, T_K))
+    return from_bubble("isotherm", system, eq.bubble_pressure(system, grid, T_K))
 
 
 def _cubic_curve(kind: str, system: eq.BinarySystem, value: float, grid: FloatArray) -> Curve:
@@ -115,7 +117,7 @@ def _cubic_curve(kind: str, system: eq.BinarySystem, value: float, grid: FloatAr
                       "an island above both critical pressures (below the cricondenbar, "
                       f"{top / 1e6:.4g} MPa); not computed")
     solve = eq.bubble_temperature if isobar else eq.bubble_pressure
-    curve = _curve(kind, system, solve(system, grid, value))
+    curve = from_bubble(kind, system, solve(system, grid, value))
     if value <= min(limits):
         return curve
     # Anchored at the component whose critical value lies above the condition.

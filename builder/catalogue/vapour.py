@@ -27,7 +27,7 @@ reader, and :func:`vapour_model_for` builds the thermodynamic model.
 from __future__ import annotations
 
 import math
-from collections.abc import Callable, Mapping
+from collections.abc import Callable
 from dataclasses import dataclass
 from typing import Any
 
@@ -36,7 +36,6 @@ import numpy as np
 from builder.catalogue.records import Component, Source
 from builder.thermo.association import DimerisingVapour
 from builder.thermo.cubic import CubicMixture
-from builder.thermo.units import UnitError, split_quantity
 from builder.thermo.vapour import IDEAL_GAS, VapourModel, VirialComponent, VirialVapour
 from builder.thermo.virial import TSONOPOULOS_CLASSES, tsonopoulos_polar_parameters
 
@@ -58,7 +57,6 @@ VAPOUR_MODELS = {
 #: Classes whose polar parameter needs the dipole moment.
 _NEEDS_DIPOLE = {c for c in TSONOPOULOS_CLASSES if c not in ("normal", "methanol", "water")}
 
-SourceReader = Callable[..., "Source | None"]
 
 
 @dataclass(frozen=True)
@@ -89,62 +87,36 @@ class PairVapour:
     given: bool = False  # written in the pair file (else the default)
 
 
-def _dipole(entry: Any, name: str, raw: Any) -> float:
-    if isinstance(raw, str):
-        try:
-            number, unit = split_quantity(raw)
-        except UnitError:
-            unit = ""
-        if unit == "D" and number >= 0:
-            return number
-    entry.fail(name, "a dipole moment in debye, such as '2.9 D'", raw)
-    return math.nan
-
-
-def component_virial(entry: Any, Tc_K: float, Pc_Pa: float, read_source: SourceReader,
-                     references: Mapping[str, Any]) -> VirialConstants | None:
-    """Read a component's ``virial`` block (the loader passes the block's entry)."""
-    species_class = entry.choice("class", tuple(TSONOPOULOS_CLASSES))
-    default_source = read_source(entry, "source", references, required=False)
+def component_virial(entry: Any, Tc_K: float, Pc_Pa: float,
+                     sourced: Callable[[Any, str], tuple[Any, Source | None]],
+                     source: Callable[[Any], Source | None]) -> VirialConstants | None:
+    """Read a component's ``virial`` block (the loader passes the block's entry and its
+    readers of ``{value, source}`` values and of ``source`` blocks)."""
+    species_class = entry.get("class") or ""
+    default_source = source(entry)
     values: dict[str, float] = {}
     sources: dict[str, Source] = {}
     for key in ("dipole_moment", "critical_volume"):
-        if not entry.has(key):
+        value, own = sourced(entry, key)
+        if value is None:
             continue
-        raw = entry.raw(key)
-        own = None
-        if isinstance(raw, Mapping):
-            sub = entry.child(key)
-            raw = sub.raw("value")
-            own = read_source(sub, "source", references)
-            sub.finish()
-        if key == "dipole_moment":
-            values[key] = _dipole(entry, key, raw)
-        else:
-            values[key] = entry.convert(key, raw, "molar_volume")
+        values[key] = float(value)
         chosen = own or default_source
         if chosen is None:
-            entry.fail(key, "a source (a 'source' block here or {value, source})", raw)
+            entry.fail(key, "a source (a 'source' block here or {value, source})", value)
         else:
             sources[key] = chosen
-    dimer_A = dimer_B = None
-    dimer = entry.child("dimerisation", None)
-    if dimer is not None:
-        dimer_A = dimer.number("A")
-        raw_B = dimer.raw("B", expected="a temperature coefficient such as '3166 K'")
-        dimer_B = _kelvin(dimer, "B", raw_B)
-        if read_source(dimer, "source", references) is None:
-            dimer_A = None
-        dimer.finish()
-    entry.used.add("critical_volume")
-    if "critical_volume" not in values:
-        entry.fail("critical_volume", "a critical volume with a unit, such as '213 cm3/mol'",
-                   "nothing (the field is missing)")
     if species_class in _NEEDS_DIPOLE and "dipole_moment" not in values:
         entry.fail("dipole_moment", f"a dipole moment (class {species_class!r} needs it)",
                    "nothing (the field is missing)")
+    dimer_A = dimer_B = None
+    dimer = entry.child("dimerisation")
+    if dimer is not None:
+        dimer_A, dimer_B = dimer.get("A"), dimer.get("B")
+        source(dimer)
+        dimer.finish()
     entry.finish()
-    if not entry.ok or not species_class:
+    if not entry.ok or not species_class or "critical_volume" not in values:
         return None
     dipole = values.get("dipole_moment", 0.0)
     a, b = tsonopoulos_polar_parameters(species_class, dipole, Tc_K, Pc_Pa)
@@ -152,51 +124,29 @@ def component_virial(entry: Any, Tc_K: float, Pc_Pa: float, read_source: SourceR
                            dimer_A, dimer_B)
 
 
-def _kelvin(entry: Any, name: str, raw: Any) -> float:
-    if isinstance(raw, str):
-        try:
-            number, unit = split_quantity(raw)
-        except UnitError:
-            unit = ""
-        if unit == "K":
-            return number
-    entry.fail(name, "a coefficient in K, such as '3166 K' (log10(K/Pa⁻¹) = A + B/T)", raw)
-    return math.nan
-
-
-def pair_vapour(entry: Any, read_source: SourceReader, references: Mapping[str, Any],
-                qualities: tuple[str, ...]) -> PairVapour:
+def pair_vapour(entry: Any, source: Callable[[Any], Source | None]) -> PairVapour:
     """Read a pair's ``vapour`` block (the loader passes the block's entry, or None)."""
     if entry is None:
         return PairVapour(model="")
-    model = entry.choice("model", tuple(VAPOUR_MODELS))
-    kij = None
-    if entry.has("kij"):
-        kij = entry.number("kij")
-        if math.isfinite(kij) and not (-0.5 < kij < 0.5):
-            entry.fail("kij", "a binary interaction parameter between -0.5 and 0.5", kij)
-    elif model == "peng-robinson":
-        entry.fail("kij", "the published binary interaction parameter k12 (a number)",
-                   "nothing (the field is missing)")
-    source = read_source(entry, "source", references, required=kij is not None)
-    quality = entry.choice("quality", qualities, "" if model != "peng-robinson" else ...)
-    T_min = T_max = math.nan
-    if entry.has("T_range"):
-        T_range = entry.raw("T_range")
-        if isinstance(T_range, list) and len(T_range) == 2:
-            T_min = entry.convert("T_range", T_range[0], "temperature")
-            T_max = entry.convert("T_range", T_range[1], "temperature")
-            if T_min >= T_max:
-                entry.fail("T_range", "a lower then a higher temperature", T_range)
-        else:
-            entry.fail("T_range", "a list of two temperatures, such as ['250 K', '420 K']",
-                       T_range)
-    elif model == "peng-robinson":
-        entry.fail("T_range", "the temperature range of the data the kij was fitted to",
-                   "nothing (the field is missing)")
+    model = entry.get("model") or ""
+    kij = entry.get("kij")
+    T_range = entry.get("T_range")
+    quality = entry.get("quality") or ""
+    found_source = source(entry)
+    if model == "peng-robinson":
+        for name, value, expected in (
+                ("kij", kij, "the published binary interaction parameter k12 (a number)"),
+                ("T_range", T_range, "the temperatures the kij applies to"),
+                ("quality", quality or None, "the quality of the kij"),
+                ("source", found_source, "the source of the kij")):
+            if value is None:
+                entry.fail(name, expected, "nothing (the field is missing)")
+    elif kij is not None and found_source is None:
+        entry.fail("source", "the source of the kij", "nothing (the field is missing)")
     entry.finish()
-    return PairVapour(model=model, kij=kij, source=source, quality=quality, T_min_K=T_min,
-                      T_max_K=T_max, given=True)
+    T_min, T_max = T_range if T_range is not None else (math.nan, math.nan)
+    return PairVapour(model=model, kij=kij, source=found_source, quality=quality,
+                      T_min_K=T_min, T_max_K=T_max, given=True)
 
 
 def vapour_text(name: str) -> str:
