@@ -56,7 +56,7 @@ TSONOPOULOS_CLASSES = {
                        "dimerisation is treated chemically)",
     "other-polar": "a = -2.14e-4 μr - 4.308e-21 μr^8, b = 0 (the rule of the polar, "
                    "non-hydrogen-bonding classes, applied by analogy; e.g. pyridine)",
-    "alkyl-halide": "a = -2.188e-4 μr^4 - 7.831e-21 μr^8, b = 0",
+    "alkyl-halide": "a = -2.188e-11 μr^4 - 7.831e-21 μr^8, b = 0",
     "alkanol": "a = 0.0878, b = 0.00908 + 0.0006957 μr",
     "methanol": "a = 0.0878, b = 0.0525",
     "water": "a = -0.0109, b = 0",
@@ -103,7 +103,9 @@ def tsonopoulos_polar_parameters(species_class: str, dipole_debye: float, Tc_K: 
     if species_class in _KETONE_LIKE:
         return -2.14e-4 * mu_r - 4.308e-21 * mu_r**8, 0.0
     if species_class == "alkyl-halide":
-        return -2.188e-4 * mu_r**4 - 7.831e-21 * mu_r**8, 0.0
+        # 2.188e-11 as printed in [1] and Poling et al. (5th ed., ch. 4) (from memory); the
+        # chemicals package (1.5.2) uses 2.188e-4, which makes a of chloroform about -60.
+        return -2.188e-11 * mu_r**4 - 7.831e-21 * mu_r**8, 0.0
     return 0.0878, 0.00908 + 0.0006957 * mu_r  # alkanol
 
 
