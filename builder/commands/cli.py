@@ -162,7 +162,8 @@ def _point_table(answer: point.PointAnswer, show_mass: bool = False) -> str:
     rows = [
         ("liquid x (mol/mol)", answer.x),
         ("vapour y (mol/mol)", answer.y),
-        ("activity coeff. γ", answer.gamma),
+        *([("activity coeff. γ", answer.gamma)] if answer.vapour_model != "peng-robinson"
+          else []),
         ("vapour fugacity coeff. φ", answer.phi),
         ("K-value y/x", answer.K),
     ]
