@@ -26,6 +26,11 @@ stored values now satisfy them to 1e-14: water--n-butyl-acetate at 101.325 kPa (
 0.1675/0.9975 from the grid, now 0.167636/0.997874; T 0.005 K lower) and its trace at
 two pressures, ethyl-acetate--water's trace at 17.5 kPa and water--1-butanol's at
 114 kPa (former residual in ln P 6e-7).
+
+Regenerated when the virial vapour (second virial coefficients and Poynting factors)
+became the default vapour treatment and four pairs moved to Peng-Robinson: a deliberate
+change of results (against the ideal-gas snapshot, temperatures moved by up to 2.2 K,
+mostly a few tenths of a kelvin at 101.325 kPa, compositions by up to 0.033).
 """
 
 from __future__ import annotations

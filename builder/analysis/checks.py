@@ -13,6 +13,7 @@ record and attaches the checks, so neither this module nor the record imports it
 
 from __future__ import annotations
 
+from builder.analysis import curves
 from builder.analysis.record import ATMOSPHERIC_PA, Check, PairResults
 
 __all__ = ["AZEOTROPE_T_TOLERANCE_K", "AZEOTROPE_X_TOLERANCE", "Check", "check_pair"]
@@ -26,7 +27,7 @@ def check_pair(results: PairResults) -> tuple[Check, ...]:
     """Convergence, recorded azeotropes, zeotropy and liquid splitting of one pair."""
     checks: list[Check] = []
     for condition in results.conditions:
-        failed = int((~condition.curve.converged).sum())
+        failed = curves.unconverged(condition.curve)
         checks.append(Check(
             name=f"curve converges ({condition.kind} {condition.label})",
             passed=failed == 0 and condition.azeotrope_search_complete,

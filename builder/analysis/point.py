@@ -19,6 +19,7 @@ from numpy.typing import ArrayLike
 from builder.catalogue.loader import Catalogue
 from builder.catalogue.lookup import find_pair_or_prediction
 from builder.catalogue.records import Component, PairRecord
+from builder.catalogue.vapour import PairVapour, vapour_model_for
 from builder.thermo import equilibrium as eq
 
 __all__ = ["POINT_KINDS", "PointAnswer", "mass_to_mole", "mole_to_mass", "solve_point",
@@ -57,8 +58,9 @@ def mole_to_mass(x1: float, M1: float, M2: float) -> float:
 
 def system_for(pair: PairRecord, catalogue: Catalogue, swapped: bool = False) -> eq.BinarySystem:
     """The equilibrium system of a pair, in the record's order or swapped."""
-    system = eq.BinarySystem(catalogue.components[pair.component1].vapour_pressure,
-                             catalogue.components[pair.component2].vapour_pressure, pair.model)
+    c1, c2 = catalogue.components[pair.component1], catalogue.components[pair.component2]
+    vapour = vapour_model_for(pair.vapour or PairVapour(model=""), c1, c2)
+    system = eq.BinarySystem(c1.vapour_pressure, c2.vapour_pressure, pair.model, vapour)
     return system.swapped() if swapped else system
 
 
@@ -66,7 +68,7 @@ def validity_warnings(pair: PairRecord, components: tuple[Component, Component],
                       T_K: float) -> list[str]:
     """Plain-words warnings for a temperature outside what the data support."""
     warnings = []
-    for component in components:
+    for component in components if pair.model_kind != "peng-robinson" else ():
         vp = component.vapour_pressure
         if not (vp.T_min_K <= T_K <= vp.T_max_K):
             warnings.append(
@@ -100,6 +102,8 @@ class PointAnswer:
     alpha12: float
     converged: bool
     warnings: list[str] = field(default_factory=list)
+    vapour_model: str = "ideal-gas"
+    phi: tuple[float, float] = (1.0, 1.0)  # vapour fugacity coefficients
 
     def to_json(self) -> dict[str, Any]:
         """The stable JSON object of ``atlas calc ... --json``."""
@@ -109,6 +113,7 @@ class PointAnswer:
             "pair": self.pair.id,
             "components": [c.id for c in self.components],
             "model": self.pair.model.name,
+            "vapour_model": self.vapour_model,
             "quality": self.pair.quality,
             "T_K": self.T_K,
             "P_Pa": self.P_Pa,
@@ -117,6 +122,7 @@ class PointAnswer:
             "x_mass": _mass_pair(self.x[0], M),
             "y_mass": _mass_pair(self.y[0], M),
             "gamma": list(self.gamma),
+            "phi": list(self.phi),
             "K": list(self.K),
             "alpha12": self.alpha12,
             "converged": self.converged,
@@ -170,4 +176,6 @@ def solve_point(catalogue: Catalogue, first: str, second: str, kind: str, *,
         x=(x1, 1.0 - x1), y=(y1, 1.0 - y1),
         gamma=(float(result.gamma1[0]), float(result.gamma2[0])),
         K=(K1, K2), alpha12=K1 / K2, converged=converged, warnings=warnings,
+        vapour_model=system.vapour.name,
+        phi=(float(result.phi1[0]), float(result.phi2[0])),
     )

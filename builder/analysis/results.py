@@ -30,7 +30,7 @@ from builder.analysis.record import (
     PairResults,
 )
 from builder.analysis.trace import analyse, trace_azeotrope
-from builder.analysis.volatility import ROUND_COMPOSITIONS, volatility
+from builder.analysis.volatility import ROUND_COMPOSITIONS, Volatility, volatility
 from builder.catalogue.loader import Catalogue
 from builder.catalogue.records import Component, PairRecord
 from builder.thermo import equilibrium as eq
@@ -49,6 +49,8 @@ def _part(result: eq.EquilibriumResult, part: slice) -> eq.EquilibriumResult:
 def _extrapolated(pair: PairRecord, c1: Component, c2: Component,
                   T_K: NDArray[np.float64]) -> NDArray[np.bool_]:
     outside = (T_K < pair.T_min_K) | (T_K > pair.T_max_K)
+    if pair.model_kind == "peng-robinson":  # φ–φ: the vapour-pressure correlations are unused
+        return np.asarray(outside, dtype=bool)
     for component in (c1, c2):
         vp = component.vapour_pressure
         outside |= (T_K < vp.T_min_K) | (T_K > vp.T_max_K)
@@ -73,15 +75,23 @@ def _condition(catalogue: Catalogue, pair: PairRecord, kind: str, value: float
     c1 = catalogue.components[pair.component1]
     c2 = catalogue.components[pair.component2]
     isobar = kind == "isobar"
-    # The curve, the azeotrope search grid and the table's round compositions: one solve.
-    parts = (curves.composition_grid(), search_grid(), ROUND_COMPOSITIONS)
-    solved = (eq.bubble_temperature if isobar else eq.bubble_pressure)(
-        system, np.concatenate(parts), value)
-    ends = np.cumsum([0] + [p.size for p in parts])
-    curve_points, search_points, table_points = (
-        _part(solved, slice(a, b)) for a, b in itertools.pairwise(ends))
-    curve = curves.from_bubble(kind, system, curve_points)
-    phases = analyse(system, pair.model, isobar, value, curve, search_points)
+    table_points: eq.EquilibriumResult | None = None
+    if system.phi_phi:
+        # φ–φ: the curve may end at a critical point or not exist (curves handles both).
+        curve = curves.isobar(system, value) if isobar else curves.isotherm(system, value)
+        if curve.no_two_phase:
+            return _no_two_phase(kind, value, curve)
+        phases = analyse(system, pair.model, isobar, value, curve)
+    else:
+        # The curve, the azeotrope search grid and the table's round compositions: one solve.
+        parts = (curves.composition_grid(), search_grid(), ROUND_COMPOSITIONS)
+        solved = (eq.bubble_temperature if isobar else eq.bubble_pressure)(
+            system, np.concatenate(parts), value)
+        ends = np.cumsum([0] + [p.size for p in parts])
+        curve_points, search_points, table_points = (
+            _part(solved, slice(a, b)) for a, b in itertools.pairwise(ends))
+        curve = curves.from_bubble(kind, system, curve_points)
+        phases = analyse(system, pair.model, isobar, value, curve, search_points)
     warnings = list(phases.warnings)
     found = phases.azeotropes
     three_phase = phases.three_phase
@@ -89,6 +99,12 @@ def _condition(catalogue: Catalogue, pair: PairRecord, kind: str, value: float
     drawable = curve.converged & ~phases.inside_gap
     extrapolated = _extrapolated(pair, c1, c2, curve.T_K)
     failed = int((~curve.converged).sum())
+    if curve.critical is not None:
+        c = curve.critical
+        warnings = [w for w in warnings if "could not cover" not in w]
+        warnings.append(f"the two-phase region ends at the mixture critical point (x1 = "
+                        f"{c.x1:.3f}, {c.T_K:.2f} K, {c.P_Pa / 1e6:.4g} MPa); no curve beyond it")
+        failed = int((~curve.converged & ~curves.beyond_critical(curve)).sum())
     if failed:
         warnings.append(f"{failed} of {curve.x1.size} points did not converge and are not drawn")
     if extrapolated.any():
@@ -97,11 +113,12 @@ def _condition(catalogue: Catalogue, pair: PairRecord, kind: str, value: float
                         "correlation (drawn dashed)")
     for component in (c1, c2):
         T_max = float(np.nanmax(curve.T_K))
-        if T_max >= component.critical_temperature_K:
+        if T_max >= component.critical_temperature_K and not system.phi_phi:
             warnings.append(f"{component.name} is above its critical temperature "
                             f"({component.critical_temperature_K:.1f} K) on part of this "
                             "curve: the modified Raoult's law does not apply there")
-    vol = volatility(system, curve.x1, curve.alpha12, drawable,
+    summarised = drawable if curve.critical is None else drawable & (curve.x1 != curve.critical.x1)
+    vol = volatility(system, curve.x1, curve.alpha12, summarised,
                      P_Pa=value if isobar else None, T_K=None if isobar else value,
                      has_azeotrope=bool(found), rows=table_points)
     look = None
@@ -110,9 +127,26 @@ def _condition(catalogue: Catalogue, pair: PairRecord, kind: str, value: float
         look = quick_look(system, value, found, three_phase, _default_split(pair, light), light)
     return ConditionResult(kind=kind, condition=value, curve=curve, drawable=drawable,
                            extrapolated=extrapolated, azeotropes=tuple(found),
-                           azeotrope_search_complete=phases.complete, volatility=vol,
+                           # Past a critical point there is no two-phase region to search.
+                           azeotrope_search_complete=phases.complete or curve.critical is not None,
+                           volatility=vol,
                            warnings=tuple(warnings), liquid_stable=liquid_stable,
                            three_phase=three_phase, quicklook=look)
+
+
+def _no_two_phase(kind: str, value: float, curve: curves.Curve) -> ConditionResult:
+    """A condition with no two-phase region: reported in words, nothing drawn."""
+    none = np.zeros(curve.x1.shape, dtype=bool)
+    nan = float("nan")
+    vol = Volatility(alpha_infinite_dilution_1=nan, alpha_infinite_dilution_2=nan,
+                     alpha_min=nan, x1_at_min=nan, alpha_max=nan, x1_at_max=nan,
+                     lighter_over_heavier_min=nan, grade="no two-phase region",
+                     grade_text=curve.no_two_phase, table=())
+    return ConditionResult(kind=kind, condition=value, curve=curve, drawable=none,
+                           extrapolated=none.copy(), azeotropes=(),
+                           azeotrope_search_complete=True, volatility=vol,
+                           warnings=(curve.no_two_phase,), liquid_stable=~none,
+                           three_phase=None, quicklook=None)
 
 
 def compute_pair(catalogue: Catalogue, pair: PairRecord) -> PairResults:

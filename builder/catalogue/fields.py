@@ -249,6 +249,30 @@ VAPOUR_PRESSURE = Block("vapour_pressure", (
     ),
 }, help="vapour-pressure correlation as published, with its validity range")
 
+#: Tsonopoulos classes of the second virial coefficient (builder.thermo.virial).
+VIRIAL_CLASSES = ("normal", "ketone", "aldehyde", "alkyl-nitrile", "ether", "ester",
+                  "carboxylic-acid", "other-polar", "alkyl-halide", "alkanol", "methanol",
+                  "water")
+
+DIMERISATION = Block("dimerisation", (
+    Field("A", "number", minimum=-100.0, maximum=100.0,
+          help="A of log10(K/Pa⁻¹) = A + B/T, the vapour dimerisation constant"),
+    Field("B", "coefficient", unit="K", minimum=-1e5, maximum=1e5, help="B of the same, in K"),
+    _source(),
+), help="vapour dimerisation constant of a carboxylic acid (chemical theory)")
+
+VIRIAL = Block("virial", (
+    Field("class", "choice", choices=VIRIAL_CLASSES,
+          help="Tsonopoulos class, which sets the polar and hydrogen-bonding terms"),
+    Field("dipole_moment", "coefficient", unit="D", sourced=True, required=False,
+          minimum=0.0, maximum=20.0,
+          help="dipole moment in debye (needed by the classes using the reduced dipole)"),
+    Field("critical_volume", "quantity", "molar_volume", sourced=True, minimum=1e-6,
+          maximum=5e-3, help="critical volume, for the cross coefficient"),
+    Field("dimerisation", "block", block=DIMERISATION, required=False),
+    _source(required=False),
+), help="constants of the second virial coefficient (the default vapour treatment)")
+
 COMPONENT = Block("component", (
     Field("id", "slug", pattern=SLUG_PATTERN, help="equal to the file name without .yaml"),
     Field("name", "text", help="the name shown to readers"),
@@ -261,6 +285,7 @@ COMPONENT = Block("component", (
     Field("constants", "block", block=CONSTANTS),
     Field("uniquac", "block", block=UNIQUAC_RQ, required=False),
     Field("groups", "block", block=GROUPS, required=False),
+    Field("virial", "block", block=VIRIAL, required=False),
     Field("vapour_pressure", "block", block=VAPOUR_PRESSURE),
 ), help="one pure component")
 
@@ -399,12 +424,27 @@ SPLIT = Block("split", tuple(
                        ("feed_x1", "saturated-liquid feed mole fraction of component 1"))
 ), help="the split of the distillation quick look")
 
+VAPOUR = Block("vapour", (
+    Field("model", "choice", choices=("ideal-gas", "virial", "associating", "peng-robinson"),
+          help="vapour treatment: ideal-gas, virial (default), associating (carboxylic "
+          "acids), peng-robinson (phi-phi, no activity block)"),
+    Field("kij", "number", required=False, minimum=-0.5, maximum=0.5, exclusive=True,
+          help="binary interaction parameter k12 (peng-robinson: required)"),
+    Field("T_range", "range", "temperature", required=False, minimum=1.0, maximum=2500.0,
+          help="peng-robinson: temperatures the kij applies to"),
+    Field("quality", "choice", choices=tuple(QUALITIES), required=False,
+          help="peng-robinson: quality of the kij"),
+    _source(required=False),
+), help="the vapour treatment (default virial)")
+
 PAIR = Block("pair", (
     Field("id", "text", pattern=PAIR_ID_PATTERN,
           help="the two component ids joined by '--', equal to the file name"),
     Field("components", "texts", min_items=2, max_items=2, unique=True,
           help="component 1 and component 2 (ids of files in components/)"),
-    Field("activity", "block", block=ACTIVITY),
+    Field("activity", "block", block=ACTIVITY, required=False,
+          help="the liquid activity model (every pair but a peng-robinson one)"),
+    Field("vapour", "block", block=VAPOUR, required=False),
     Field("publish", "block", block=PUBLISH, required=False),
     Field("recorded", "block", block=RECORDED, required=False),
     Field("split", "block", block=SPLIT, required=False),

@@ -30,6 +30,7 @@ from pathlib import Path
 from typing import Any, TypeVar
 
 from builder.catalogue import fields
+from builder.catalogue import vapour as vapour_fields
 from builder.catalogue.fields import AZEOTROPE_KINDS, QUALITIES, Block, Field
 from builder.catalogue.group_tables import DEFAULT_GROUPS, group_tables
 from builder.catalogue.groups import parse_groups
@@ -47,6 +48,7 @@ from builder.catalogue.records import (
 from builder.catalogue.soundness import model_problem, vapour_pressure_problem
 from builder.errors import CatalogueError, CatalogueErrors
 from builder.thermo import activity as act
+from builder.thermo.cubic import EquationOfStateLiquid
 from builder.thermo.units import (
     GAS_CONSTANT_J_PER_MOL_K,
     SI_UNIT,
@@ -586,6 +588,12 @@ def _load_component(entry: _Entry, references: Mapping[str, Reference],
                               lambda v: group_tables(v, groups_folder), formula,
                               values.get("molar_mass", math.nan))
 
+    virial_block = entry.child("virial")
+    virial = None if virial_block is None else vapour_fields.component_virial(
+        virial_block, values.get("critical_temperature", math.nan),
+        values.get("critical_pressure", math.nan),
+        lambda e, n: _sourced(e, n, references), lambda e: _source(e, references))
+
     vp_block = entry.child("vapour_pressure")
     vapour_pressure = vp_source = None
     if vp_block is not None:
@@ -626,6 +634,7 @@ def _load_component(entry: _Entry, references: Mapping[str, Reference],
         constants_sources=sources, hazard=hazard, hazard_source=hazard_source,
         uniquac_r=r, uniquac_q=q, uniquac_source=uniquac_source, file=entry.file,
         groups=groups,
+        virial=virial,
     )
 
 
@@ -772,8 +781,17 @@ def _load_pair(entry: _Entry, components: Mapping[str, Component],
                    f"({PAIR_SEPARATOR.join(ids)!r})", pid)
     known = len(ids) == 2 and all(c in components for c in ids)
 
+    pair_vapour = vapour_fields.pair_vapour(entry.child("vapour"),
+                                            lambda e: _source(e, references))
+    cubic = pair_vapour.model == "peng-robinson"
     model_block = entry.child("activity")
-    model = None
+    if cubic and model_block is not None:
+        model_block.fail("", "no activity block (a peng-robinson pair takes both phases from "
+                         "the equation of state)", "an activity block")
+    elif not cubic and model_block is None:
+        entry.fail("activity", "the liquid activity model (a mapping)",
+                   "nothing (the field is missing)")
+    model: act.ActivityModel | None = None
     kind = ""
     T_min = T_max = math.nan
     source: Source | None = None
@@ -824,6 +842,11 @@ def _load_pair(entry: _Entry, components: Mapping[str, Component],
                                  f"temperature of the two components ({Tc:.2f} K)", f"{T:.2f} K")
         publish.finish()
 
+    if cubic and pair_vapour.kij is not None:
+        model, kind, source = EquationOfStateLiquid(pair_vapour.kij), "peng-robinson", \
+            pair_vapour.source
+        quality, T_min, T_max = pair_vapour.quality, pair_vapour.T_min_K, pair_vapour.T_max_K
+        published = {"k12": f"{pair_vapour.kij:g}"}
     recorded = _recorded(entry, references)
     split = _split(entry)
     notes = entry.get("notes") or ""
@@ -837,6 +860,7 @@ def _load_pair(entry: _Entry, components: Mapping[str, Component],
         published_parameters=published, T_min_K=T_min, T_max_K=T_max, source=source,
         quality=quality, isobars_Pa=isobars, isotherms_K=isotherms, recorded=recorded,
         notes=notes, file=entry.file, tags=tags, split_x1=split, parameters=typed,
+        vapour=pair_vapour,
     )
 
 

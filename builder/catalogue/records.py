@@ -10,9 +10,13 @@ from __future__ import annotations
 
 import re
 from dataclasses import dataclass, field
+from typing import TYPE_CHECKING
 
 from builder.thermo.activity import ActivityModel
 from builder.thermo.vapour_pressure import VapourPressure
+
+if TYPE_CHECKING:
+    from builder.catalogue.vapour import PairVapour, VirialConstants
 
 __all__ = [
     "SLUG",
@@ -132,6 +136,7 @@ class Component:
     uniquac_q: float | None = None
     uniquac_source: Source | None = None
     file: str = ""
+    virial: VirialConstants | None = None  # second-virial constants (builder.catalogue.vapour)
     #: UNIFAC subgroup counts for the predictive models (None: not assigned yet).
     groups: ComponentGroups | None = None
 
@@ -188,3 +193,6 @@ class PairRecord:
     #: Optional split for the distillation quick look: mole fractions of component 1 in
     #: distillate, bottoms and a saturated-liquid feed.  None: 95/5 % of the lighter one.
     split_x1: tuple[float, float, float] | None = None
+    #: The vapour treatment as written (None or model "": the default, see
+    #: builder.catalogue.vapour).
+    vapour: PairVapour | None = None

@@ -150,7 +150,8 @@ def _point_table(answer: point.PointAnswer, show_mass: bool = False) -> str:
                  else format_temperature(answer.T_K))
     lines = [
         f"{point.POINT_KINDS[answer.kind]} of {c1.name} (1) + {c2.name} (2) at {condition}",
-        f"model: {answer.pair.model.name} (parameter quality: {answer.pair.quality})",
+        f"model: {answer.pair.model.name} (parameter quality: {answer.pair.quality}); "
+        f"vapour: {answer.vapour_model}",
         *([f"predicted: no fitted set is used; {answer.pair.model.name} estimates this pair "
            "from group contributions"] if answer.pair.quality == "predicted" else []),
         "",
@@ -161,7 +162,9 @@ def _point_table(answer: point.PointAnswer, show_mass: bool = False) -> str:
     rows = [
         ("liquid x (mol/mol)", answer.x),
         ("vapour y (mol/mol)", answer.y),
-        ("activity coeff. γ", answer.gamma),
+        *([("activity coeff. γ", answer.gamma)] if answer.vapour_model != "peng-robinson"
+          else []),
+        ("vapour fugacity coeff. φ", answer.phi),
         ("K-value y/x", answer.K),
     ]
     if show_mass:

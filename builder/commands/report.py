@@ -101,6 +101,7 @@ def run(args: argparse.Namespace, catalogue: Catalogue) -> int:
                                swapped=swapped, split_x1=split)
     data = {"analysis": args.kind, "pair": pair.id, "components": [c1.id, c2.id],
             "model": pair.model.name, "quality": pair.quality,
+            "vapour_model": result.curve.vapour_model,
             **condition_json(result, args.kind)}
     if getattr(args, "trace", False):
         if args.kind != "azeotrope" or kind != "isobar":

@@ -24,6 +24,7 @@ from builder.analysis.distillation import Split
 from builder.analysis.results import ConditionResult, PairResults
 from builder.catalogue.loader import QUALITIES, Catalogue
 from builder.catalogue.records import Component, PairRecord, Source
+from builder.catalogue.vapour import vapour_text
 from builder.site.settings import SiteSettings
 from builder.site.text import file_slug, fmt, one_line, safe_id
 
@@ -246,6 +247,7 @@ class PairView:
     conditions: tuple[ConditionView, ...]
     model: str
     model_kind: str
+    vapour: str  # the vapour treatment, in words
     parameters: tuple[Row, ...]  # as published
     parameters_si: tuple[Row, ...]  # as used (dimensionless coefficients)
     validity: str
@@ -655,6 +657,8 @@ def _pair(catalogue: Catalogue, results: PairResults, components: dict[str, Comp
         sentence=sentence, behaviour=key, summary=tuple(rows),
         summary_label=at if summary is not None else "",
         conditions=conditions, model=pair.model.name, model_kind=pair.model_kind,
+        vapour=vapour_text(results.conditions[0].curve.vapour_model if results.conditions
+                           else ""),
         parameters=parameters, parameters_si=parameters_si,
         validity=f"{display.T(pair.T_min_K)} to {display.T(pair.T_max_K)} "
                  f"({fmt(pair.T_min_K, 5)} K to {fmt(pair.T_max_K, 5)} K)",

@@ -142,6 +142,11 @@ def _condition(result: ConditionResult, view_csv: tuple[str, str]) -> dict[str, 
             "grade": v.grade, "grade_text": v.grade_text,
         },
         "warnings": list(result.warnings),
+        "vapour_model": result.curve.vapour_model,
+        "critical_point": None if result.curve.critical is None else {
+            "x1": result.curve.critical.x1, "T_K": result.curve.critical.T_K,
+            "P_Pa": result.curve.critical.P_Pa},
+        "no_two_phase": result.curve.no_two_phase or None,
         "curve_csv": view_csv[0],
         "table_csv": view_csv[1],
     }
@@ -149,6 +154,12 @@ def _condition(result: ConditionResult, view_csv: tuple[str, str]) -> dict[str, 
         if value is not None:
             data[name] = plain(value)
     return data
+
+
+def vapour_model(results: PairResults) -> str:
+    """The vapour treatment the pair's curves were computed with."""
+    conditions = results.conditions
+    return conditions[0].curve.vapour_model if conditions else ""
 
 
 def pair_json(results: PairResults, view: PairView, settings: SiteSettings) -> dict[str, Any]:
@@ -164,6 +175,7 @@ def pair_json(results: PairResults, view: PairView, settings: SiteSettings) -> d
         "normal_boiling_points_K": [results.component1.normal_boiling_point_K,
                                     results.component2.normal_boiling_point_K],
         "model": pair.model.name,
+        "vapour_model": vapour_model(results),
         "parameters": dict(pair.parameters),
         "parameters_T_range_K": [pair.T_min_K, pair.T_max_K],
         "quality": pair.quality,

@@ -304,6 +304,22 @@ def _diagram(results: PairResults, result: ConditionResult, display: Display,
                               label=f"azeotrope x1 = {fmt(a.x1, 3)}, {where}"))
         notes.append(f"a {a.kind} azeotrope at x1 = {fmt(a.x1, 3)}, {where}")
     _azeotrope_marks(ax, az_points)
+    critical = curve.critical
+    if critical is not None:
+        level = (display.T_value(critical.T_K) if isobar
+                 else critical.P_Pa / display.settings.pressure_factor)
+        ax.plot([critical.x1], [float(level)], marker="D", markersize=7, color="white",
+                markeredgecolor="black", markeredgewidth=1.4, linestyle="none", zorder=7)
+        where = display.T(critical.T_K) if isobar else display.P(critical.P_Pa)
+        handles.append(Line2D([], [], marker="D", markersize=7, color="white",
+                              markeredgecolor="black", linestyle="none",
+                              label=f"mixture critical point x1 = {fmt(critical.x1, 3)}, {where}"))
+        notes.append(f"the curve ending at the mixture critical point, x1 = "
+                     f"{fmt(critical.x1, 3)}, {where}")
+    if curve.no_two_phase:
+        ax.text(0.5, 0.5, curve.no_two_phase, transform=ax.transAxes, ha="center",
+                va="center", wrap=True)
+        notes.append(curve.no_two_phase)
     if dashed or dashed_dew:
         drawn = int(usable.sum())
         whole = bool(dashed) and max(hi - lo for lo, hi in dashed) >= drawn - 1

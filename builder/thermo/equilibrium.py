@@ -1,12 +1,18 @@
-"""Vapour-liquid equilibrium of a binary by the modified Raoult's law.
+"""Vapour-liquid equilibrium of a binary: γ–φ with a vapour model, or φ–φ by a cubic.
 
-``y_i P = x_i γ_i(x, T) P_i^sat(T)``, i = 1, 2 (ideal vapour, liquid
-fugacity at the pure liquid's vapour pressure, no Poynting factor).  It holds
-at low to moderate pressure; near a component's critical point or at high
-pressure a vapour fugacity correction is needed.  That correction belongs in
-:func:`k_values` (``K_i = γ_i P_i^sat / (φ_i P)``), the one place where the
-vapour model enters; the bubble-pressure solve below uses the explicit
-ideal-vapour sum and would become an iteration on ``y``.
+γ–φ: ``y_i φ_i P = x_i γ_i(x, T) P_i^sat(T) φ_i^sat exp(V_i^L (P - P_i^sat)/RT)``,
+i = 1, 2.  The vapour model of the system (:mod:`builder.thermo.vapour`)
+supplies the fugacity coefficients; with the ideal-gas model it is the
+modified Raoult's law ``y_i P = x_i γ_i P_i^sat`` and the solvers below take
+exactly the explicit path they always took.  The vapour correction enters
+through :func:`k_values` (``K_i = γ_i P_i^sat c_i / P``); with a real vapour
+the vapour composition of a bubble point is found by successive substitution
+(the correction depends on y only weakly), vectorised over the points.
+
+φ–φ: a system whose ``vapour`` is a cubic equation of state
+(:class:`builder.thermo.cubic.CubicMixture`) is solved by
+:mod:`builder.thermo.cubic_equilibrium` (both phases from the equation of
+state); these functions hand such systems over and wrap the result.
 
 Each solver takes a whole vector of compositions (and a scalar or vector of
 temperatures or pressures) and solves every point in one vectorised call
@@ -21,13 +27,20 @@ solution; the liquid-stability analysis is a separate step.
 
 from __future__ import annotations
 
-from dataclasses import dataclass
+from dataclasses import dataclass, fields
 
 import numpy as np
 from numpy.typing import ArrayLike, NDArray
 
 from builder.thermo.activity import ActivityModel, Swapped
 from builder.thermo.solvers import Function, expand_bracket, solve_bracketed
+from builder.thermo.vapour import (
+    IDEAL_GAS,
+    IdealGas,
+    VapourModel,
+    correction_at,
+    ln_correction,
+)
 from builder.thermo.vapour_pressure import VapourPressure
 
 __all__ = [
@@ -42,26 +55,52 @@ __all__ = [
 
 FloatArray = NDArray[np.float64]
 BoolArray = NDArray[np.bool_]
+LnC = tuple[FloatArray, FloatArray]
+
+#: Successive-substitution limits of the real-vapour loops (tolerances in y and ln P).
+_SUBSTITUTIONS = 200
+_SUBSTITUTION_TOL = 1e-12
 
 
 @dataclass(frozen=True)
 class BinarySystem:
-    """Two components' vapour pressures and the liquid's activity model."""
+    """Two components' vapour pressures, the liquid's activity model and the vapour model.
+
+    ``vapour`` defaults to the ideal gas (modified Raoult's law).  A cubic
+    equation of state there (:class:`builder.thermo.cubic.CubicMixture`) makes
+    the system φ–φ: both phases from the equation of state, ``activity``
+    unused and the vapour pressures only a starting guess.
+    """
 
     psat1: VapourPressure
     psat2: VapourPressure
     activity: ActivityModel
+    vapour: VapourModel = IDEAL_GAS
+
+    @property
+    def ideal_vapour(self) -> bool:
+        return isinstance(self.vapour, IdealGas)
+
+    @property
+    def phi_phi(self) -> bool:
+        """Both phases by an equation of state (no activity model)."""
+        return bool(getattr(self.vapour, "phi_phi", False))
 
     def swapped(self) -> BinarySystem:
         """The same mixture with components 1 and 2 exchanged."""
         activity = self.activity
         inner = activity.inner if isinstance(activity, Swapped) else Swapped(activity)
-        return BinarySystem(self.psat2, self.psat1, inner)
+        return BinarySystem(self.psat2, self.psat1, inner, self.vapour.swapped())
 
 
 @dataclass(frozen=True)
 class EquilibriumResult:
-    """Coexisting liquid ``x1`` and vapour ``y1`` at ``T_K`` and ``P_Pa``, per point."""
+    """Coexisting liquid ``x1`` and vapour ``y1`` at ``T_K`` and ``P_Pa``, per point.
+
+    ``ln_phi1``, ``ln_phi2`` are the vapour fugacity coefficients (zero for an
+    ideal gas); for a φ–φ system ``ln_gamma*`` hold ``ln(φ_i^L / φ_i^pure)``
+    is not defined and are zero.
+    """
 
     T_K: FloatArray
     P_Pa: FloatArray
@@ -70,6 +109,8 @@ class EquilibriumResult:
     ln_gamma1: FloatArray
     ln_gamma2: FloatArray
     converged: BoolArray
+    ln_phi1: FloatArray | None = None
+    ln_phi2: FloatArray | None = None
 
     @property
     def x2(self) -> FloatArray:
@@ -87,20 +128,34 @@ class EquilibriumResult:
     def gamma2(self) -> FloatArray:
         return np.exp(self.ln_gamma2)
 
+    @property
+    def phi1(self) -> FloatArray:
+        """Vapour fugacity coefficient of component 1 (1 for an ideal gas)."""
+        return np.exp(self.ln_phi1) if self.ln_phi1 is not None else np.ones_like(self.T_K)
+
+    @property
+    def phi2(self) -> FloatArray:
+        return np.exp(self.ln_phi2) if self.ln_phi2 is not None else np.ones_like(self.T_K)
+
     def k_values(self, system: BinarySystem) -> tuple[FloatArray, FloatArray]:
         """``K_i = y_i/x_i`` evaluated from the model (finite at ``x_i = 0``)."""
-        return k_values(system, self.x1, self.T_K, self.P_Pa)
+        return k_values(system, self.x1, self.T_K, self.P_Pa, self.y1)
 
     def relative_volatility(self, system: BinarySystem) -> FloatArray:
-        """``α12 = K1/K2 = γ1 P1sat / (γ2 P2sat)``."""
+        """``α12 = K1/K2`` (``γ1 P1sat / (γ2 P2sat)`` for an ideal gas)."""
         K1, K2 = self.k_values(system)
         return K1 / K2
 
 
 def k_values(
-    system: BinarySystem, x1: ArrayLike, T_K: ArrayLike, P_Pa: ArrayLike
+    system: BinarySystem, x1: ArrayLike, T_K: ArrayLike, P_Pa: ArrayLike,
+    y1: ArrayLike | None = None,
 ) -> tuple[FloatArray, FloatArray]:
-    """Equilibrium ratios ``K_i = γ_i P_i^sat / P`` (ideal vapour).
+    """Equilibrium ratios ``K_i = γ_i P_i^sat c_i / P`` (``c_i = 1`` for an ideal gas).
+
+    ``c_i`` is the vapour correction of :func:`builder.thermo.vapour.ln_correction`
+    at the vapour ``y1``; without ``y1`` the bubble-point vapour of ``x1`` at
+    (T, P) is used.  For a φ–φ system ``K_i = φ_i^L(x) / φ_i^V(y)``.
 
     >>> from builder.thermo.activity import Ideal
     >>> from builder.thermo.vapour_pressure import Antoine
@@ -111,9 +166,21 @@ def k_values(
     """
     T = np.asarray(T_K, dtype=float)
     P = np.asarray(P_Pa, dtype=float)
+    if system.phi_phi:
+        from builder.thermo import cubic_equilibrium
+
+        return cubic_equilibrium.k_values(system.vapour, x1, T, P, y1)  # type: ignore[arg-type]
     ln_g1, ln_g2 = system.activity.ln_gamma(x1, T)
-    return (np.exp(ln_g1) * system.psat1.pressure_Pa(T) / P,
-            np.exp(ln_g2) * system.psat2.pressure_Pa(T) / P)
+    ps1, ps2 = system.psat1.pressure_Pa(T), system.psat2.pressure_Pa(T)
+    K1, K2 = np.exp(ln_g1) * ps1 / P, np.exp(ln_g2) * ps2 / P
+    if system.ideal_vapour:
+        return K1, K2
+    if y1 is None:
+        x, Tb, shape = _as_points(x1, T)
+        Pb = np.broadcast_to(P, shape).ravel().astype(float)
+        y1 = np.reshape(_bubble_vapour(system, x, Tb, Pb)[4], shape)
+    c1, c2 = ln_correction(system.vapour, y1, T, P, ps1, ps2)
+    return K1 * np.exp(c1), K2 * np.exp(c2)
 
 
 def _as_points(a: ArrayLike, b: ArrayLike) -> tuple[FloatArray, FloatArray, tuple[int, ...]]:
@@ -130,48 +197,118 @@ def _check_fractions(name: str, values: FloatArray) -> None:
 
 
 def _partial_pressures(
-    system: BinarySystem, x1: FloatArray, T: FloatArray
+    system: BinarySystem, x1: FloatArray, T: FloatArray, ln_c: LnC | None = None
 ) -> tuple[FloatArray, FloatArray, FloatArray, FloatArray]:
+    """``x_i γ_i P_i^sat c_i``: the partial pressures of a bubble point (``c_i = 1`` if none)."""
     ln_g1, ln_g2 = system.activity.ln_gamma(x1, T)
     p1 = x1 * np.exp(ln_g1) * system.psat1.pressure_Pa(T)
     p2 = (1.0 - x1) * np.exp(ln_g2) * system.psat2.pressure_Pa(T)
+    if ln_c is not None:
+        p1 = p1 * np.exp(ln_c[0])
+        p2 = p2 * np.exp(ln_c[1])
     return p1, p2, ln_g1, ln_g2
 
 
+def _correction(system: BinarySystem, y1: FloatArray, T: FloatArray, P: FloatArray) -> LnC:
+    """``ln c_i``, capped where a bracket probe lands far outside the virial's range (a very
+    low trial temperature makes B, and with it the correction, diverge)."""
+    c1, c2 = ln_correction(system.vapour, y1, T, P, system.psat1.pressure_Pa(T),
+                           system.psat2.pressure_Pa(T))
+    return np.clip(c1, -50.0, 50.0), np.clip(c2, -50.0, 50.0)
+
+
+def _bubble_vapour(
+    system: BinarySystem, x1: FloatArray, T: FloatArray, P: FloatArray
+) -> tuple[FloatArray, FloatArray, FloatArray, FloatArray, FloatArray, BoolArray]:
+    """Partial pressures, ``ln γ``, the bubble vapour ``y1`` and its convergence at (T, P).
+
+    For a real vapour ``y`` is found by successive substitution
+    ``y_i ∝ x_i γ_i P_i^sat c_i(y)``; for an ideal gas it is explicit.
+    """
+    p1, p2, ln_g1, ln_g2 = _partial_pressures(system, x1, T)
+    y = p1 / (p1 + p2)
+    ok = np.ones_like(y, dtype=bool)
+    if system.ideal_vapour:
+        return p1, p2, ln_g1, ln_g2, y, ok
+    base1, base2 = p1, p2
+    ok = np.zeros_like(y, dtype=bool)
+    correction = correction_at(system.vapour, T, P, system.psat1.pressure_Pa(T),
+                               system.psat2.pressure_Pa(T))
+    for _ in range(_SUBSTITUTIONS):
+        c1, c2 = correction(y)
+        c1, c2 = np.clip(c1, -50.0, 50.0), np.clip(c2, -50.0, 50.0)
+        p1, p2 = base1 * np.exp(c1), base2 * np.exp(c2)
+        y_new = p1 / (p1 + p2)
+        ok = np.abs(y_new - y) <= _SUBSTITUTION_TOL
+        y = y_new
+        if ok.all():
+            break
+    return p1, p2, ln_g1, ln_g2, y, ok
+
+
+def _phi(system: BinarySystem, y1: FloatArray, T: FloatArray, P: FloatArray
+         ) -> tuple[FloatArray | None, FloatArray | None]:
+    if system.ideal_vapour:
+        return None, None
+    return system.vapour.ln_phi(y1, T, P)
+
+
 def _reshape(result: EquilibriumResult, shape: tuple[int, ...]) -> EquilibriumResult:
-    return EquilibriumResult(*(np.reshape(getattr(result, f), shape) for f in (
-        "T_K", "P_Pa", "x1", "y1", "ln_gamma1", "ln_gamma2", "converged")))
+    values = {f.name: getattr(result, f.name) for f in fields(result)}
+    reshaped = {k: None if v is None else np.reshape(v, shape) for k, v in values.items()}
+    return EquilibriumResult(**reshaped)  # type: ignore[arg-type]
 
 
 def bubble_pressure(system: BinarySystem, x1: ArrayLike, T_K: ArrayLike) -> EquilibriumResult:
     """Bubble pressure and vapour composition of liquid ``x1`` at ``T_K``.
 
-    Explicit for an ideal vapour: ``P = Σ x_i γ_i P_i^sat``, ``y_i = x_i γ_i P_i^sat / P``.
+    Explicit for an ideal vapour: ``P = Σ x_i γ_i P_i^sat``, ``y_i = x_i γ_i P_i^sat / P``;
+    with a real vapour the same sums with ``c_i(y, T, P)``, iterated on P and y.
     """
     x, T, shape = _as_points(x1, T_K)
     _check_fractions("x1", x)
+    if system.phi_phi:
+        return _reshape(_phi_phi("bubble_pressure", system, x, T), shape)
     p1, p2, ln_g1, ln_g2 = _partial_pressures(system, x, T)
     P = p1 + p2
     y = p1 / P
-    converged = np.isfinite(P) & np.isfinite(y) & (P > 0)
-    return _reshape(EquilibriumResult(T, P, x, y, ln_g1, ln_g2, converged), shape)
+    done = np.ones_like(P, dtype=bool)
+    if not system.ideal_vapour:
+        base1, base2 = p1, p2
+        for _ in range(_SUBSTITUTIONS):
+            c1, c2 = _correction(system, y, T, P)
+            p1, p2 = base1 * np.exp(c1), base2 * np.exp(c2)
+            P_new = p1 + p2
+            y_new = p1 / P_new
+            done = (np.abs(np.log(P_new / P)) <= _SUBSTITUTION_TOL) & (
+                np.abs(y_new - y) <= _SUBSTITUTION_TOL)
+            P, y = P_new, y_new
+            if done.all():
+                break
+    converged = done & np.isfinite(P) & np.isfinite(y) & (P > 0)
+    phi1, phi2 = _phi(system, y, T, P)
+    return _reshape(EquilibriumResult(T, P, x, y, ln_g1, ln_g2, converged, phi1, phi2), shape)
 
 
-def _liquid_for_vapour(system: BinarySystem, y: FloatArray, T: FloatArray) -> tuple[FloatArray,
-                                                                                     BoolArray]:
+def _liquid_for_vapour(system: BinarySystem, y: FloatArray, T: FloatArray,
+                       ln_c: LnC | None = None) -> tuple[FloatArray, BoolArray]:
     """Liquid ``x1`` whose bubble-point vapour at ``T`` is ``y`` (bracketed on [0, 1]).
 
-    For a stable liquid at fixed T the bubble vapour ``y1`` rises monotonically
-    with ``x1``, so the root in [0, 1] is unique.
+    ``ln_c`` is the vapour correction, fixed because ``y`` (and P) are.  For a
+    stable liquid at fixed T the bubble vapour ``y1`` rises monotonically with
+    ``x1``, so the root in [0, 1] is unique.
     """
 
     def residual(x: FloatArray, mask: BoolArray) -> FloatArray:
-        p1, p2, _, _ = _partial_pressures(system, x, T[mask])
+        c = None if ln_c is None else (ln_c[0][mask], ln_c[1][mask])
+        p1, p2, _, _ = _partial_pressures(system, x, T[mask], c)
         return p1 / (p1 + p2) - y[mask]
 
     # Ideal-solution estimate as the starting point: x1 = y1/P1 / (y1/P1 + y2/P2).
     r1 = y / system.psat1.pressure_Pa(T)
     r2 = (1.0 - y) / system.psat2.pressure_Pa(T)
+    if ln_c is not None:
+        r1, r2 = r1 / np.exp(ln_c[0]), r2 / np.exp(ln_c[1])
     guess = r1 / (r1 + r2)
     result = solve_bracketed(residual, np.zeros_like(y), np.ones_like(y), guess, xtol=1e-14,
                              ftol=1e-14)
@@ -179,14 +316,33 @@ def _liquid_for_vapour(system: BinarySystem, y: FloatArray, T: FloatArray) -> tu
 
 
 def dew_pressure(system: BinarySystem, y1: ArrayLike, T_K: ArrayLike) -> EquilibriumResult:
-    """Dew pressure and liquid composition of vapour ``y1`` at ``T_K``."""
+    """Dew pressure and liquid composition of vapour ``y1`` at ``T_K``.
+
+    With a real vapour the correction ``c_i(y, T, P)`` is known once P is, so
+    the ideal-gas solve is repeated with it until P settles.
+    """
     y, T, shape = _as_points(y1, T_K)
     _check_fractions("y1", y)
+    if system.phi_phi:
+        return _reshape(_phi_phi("dew_pressure", system, y, T), shape)
     x, ok = _liquid_for_vapour(system, y, T)
     p1, p2, ln_g1, ln_g2 = _partial_pressures(system, x, T)
     P = p1 + p2
+    if not system.ideal_vapour:
+        settled = np.zeros_like(ok)
+        for _ in range(_SUBSTITUTIONS):
+            ln_c = _correction(system, y, T, P)
+            x, ok = _liquid_for_vapour(system, y, T, ln_c)
+            p1, p2, ln_g1, ln_g2 = _partial_pressures(system, x, T, ln_c)
+            P_new = p1 + p2
+            settled = np.abs(np.log(P_new / P)) <= 1e-12
+            P = P_new
+            if settled.all():
+                break
+        ok = ok & settled
     ok = ok & np.isfinite(P)
-    return _reshape(EquilibriumResult(T, P, x, y, ln_g1, ln_g2, ok), shape)
+    phi1, phi2 = _phi(system, y, T, P)
+    return _reshape(EquilibriumResult(T, P, x, y, ln_g1, ln_g2, ok, phi1, phi2), shape)
 
 
 def _temperature_start(system: BinarySystem, P: FloatArray, z1: FloatArray,
@@ -207,25 +363,27 @@ def _temperature_start(system: BinarySystem, P: FloatArray, z1: FloatArray,
 def bubble_temperature(system: BinarySystem, x1: ArrayLike, P_Pa: ArrayLike) -> EquilibriumResult:
     """Bubble temperature and vapour composition of liquid ``x1`` at ``P_Pa``.
 
-    Solves ``ln(Σ x_i γ_i(T) P_i^sat(T)) = ln P`` for T, all points at once,
+    Solves ``ln(Σ x_i γ_i(T) P_i^sat(T) c_i) = ln P`` for T, all points at once,
     bracketed between the pure components' saturation temperatures and
     widened until it brackets (an azeotrope may boil outside that span).
     """
     x, P, shape = _as_points(x1, P_Pa)
     _check_fractions("x1", x)
+    if system.phi_phi:
+        return _reshape(_phi_phi("bubble_temperature", system, x, P), shape)
     ln_P = np.log(P)
 
     def residual(T: FloatArray, mask: BoolArray) -> FloatArray:
-        p1, p2, _, _ = _partial_pressures(system, x[mask], T)
+        p1, p2, _, _, _, _ = _bubble_vapour(system, x[mask], T, P[mask])
         return np.log(p1 + p2) - ln_P[mask]
 
     lo, hi, guess = _temperature_start(system, P, x, residual)
     solved = solve_bracketed(residual, lo, hi, guess)
     T = solved.root
-    p1, p2, ln_g1, ln_g2 = _partial_pressures(system, x, T)
-    y = p1 / (p1 + p2)
-    ok = solved.converged & np.isfinite(y)
-    return _reshape(EquilibriumResult(T, P, x, y, ln_g1, ln_g2, ok), shape)
+    _, _, ln_g1, ln_g2, y, inner_ok = _bubble_vapour(system, x, T, P)
+    ok = solved.converged & np.isfinite(y) & inner_ok
+    phi1, phi2 = _phi(system, y, T, P)
+    return _reshape(EquilibriumResult(T, P, x, y, ln_g1, ln_g2, ok, phi1, phi2), shape)
 
 
 def dew_temperature(system: BinarySystem, y1: ArrayLike, P_Pa: ArrayLike) -> EquilibriumResult:
@@ -233,21 +391,41 @@ def dew_temperature(system: BinarySystem, y1: ArrayLike, P_Pa: ArrayLike) -> Equ
 
     An outer bracketed solve in T of ``ln P_dew(T, y1) = ln P``, where the
     inner step finds the liquid in equilibrium with ``y1`` at each trial T
-    (:func:`dew_pressure`'s bracketed solve in ``x1``).
+    (:func:`dew_pressure`'s bracketed solve in ``x1``, with the vapour
+    correction at the known y, T and P).
     """
     y, P, shape = _as_points(y1, P_Pa)
     _check_fractions("y1", y)
+    if system.phi_phi:
+        return _reshape(_phi_phi("dew_temperature", system, y, P), shape)
     ln_P = np.log(P)
 
+    def correction(T: FloatArray, mask: BoolArray) -> LnC | None:
+        return None if system.ideal_vapour else _correction(system, y[mask], T, P[mask])
+
     def residual(T: FloatArray, mask: BoolArray) -> FloatArray:
-        x, _ = _liquid_for_vapour(system, y[mask], T)
-        p1, p2, _, _ = _partial_pressures(system, x, T)
+        ln_c = correction(T, mask)
+        x, _ = _liquid_for_vapour(system, y[mask], T, ln_c)
+        p1, p2, _, _ = _partial_pressures(system, x, T, ln_c)
         return np.log(p1 + p2) - ln_P[mask]
 
     lo, hi, guess = _temperature_start(system, P, y, residual)
     solved = solve_bracketed(residual, lo, hi, guess)
     T = solved.root
-    x, inner_ok = _liquid_for_vapour(system, y, T)
+    everything = np.ones_like(y, dtype=bool)
+    x, inner_ok = _liquid_for_vapour(system, y, T, correction(T, everything))
     _, _, ln_g1, ln_g2 = _partial_pressures(system, x, T)
     ok = solved.converged & inner_ok
-    return _reshape(EquilibriumResult(T, P, x, y, ln_g1, ln_g2, ok), shape)
+    phi1, phi2 = _phi(system, y, T, P)
+    return _reshape(EquilibriumResult(T, P, x, y, ln_g1, ln_g2, ok, phi1, phi2), shape)
+
+
+def _phi_phi(kind: str, system: BinarySystem, z: FloatArray, condition: FloatArray
+             ) -> EquilibriumResult:
+    """Hand a φ–φ system to the cubic solvers (imported here: they are optional weight)."""
+    from builder.thermo import cubic_equilibrium
+
+    solved = getattr(cubic_equilibrium, kind)(system, z, condition)
+    zero = np.zeros_like(solved.T_K)
+    return EquilibriumResult(solved.T_K, solved.P_Pa, solved.x1, solved.y1, zero, zero.copy(),
+                             solved.converged, solved.ln_phi1, solved.ln_phi2)

@@ -1,0 +1,395 @@
+"""Bubble and dew points and mixture critical points of a binary by a cubic equation of state.
+
+φ–φ: ``x_i φ_i^L(x, T, P) = y_i φ_i^V(y, T, P)``, i = 1, 2, both fugacity
+coefficients from :class:`builder.thermo.cubic.CubicMixture`.  Written as
+``r_i = x_i K_i - y_i = 0`` with ``K_i = φ_i^L/φ_i^V`` (finite at the pure
+ends), each bubble or dew point is two equations in two unknowns (T or ln P,
+and the unknown phase's composition), solved by a damped Newton method for
+all points at once.  The first guess comes from Raoult's law with the
+catalogue's vapour pressures; points that fail from it are retried from their
+nearest converged neighbour (continuation along the composition).
+
+The trivial solution (x = y, K = 1) satisfies the equations everywhere and is
+rejected: a point converging to it is reported unconverged.  Beyond a mixture
+critical point no other solution exists, so such points are never drawn.
+
+Critical points: at fixed T the two-phase region of a binary ends where the
+coexisting phases become identical, at the extreme pressure of the loop
+(dP/dx = 0 where y = x, Gibbs–Konovalov); at fixed P at the extreme
+temperature.  :func:`critical_point` follows the two-phase solution at fixed
+(T, P) towards that extreme and brackets it by bisection until the two phases
+differ by less than ``2e-4`` in mole fraction [1, ch. 7].
+
+References
+----------
+[1] M. L. Michelsen, J. M. Mollerup, Thermodynamic Models: Fundamentals and
+    Computational Aspects, 2nd ed., Tie-Line Publications, 2007.
+"""
+
+from __future__ import annotations
+
+from collections.abc import Callable
+from dataclasses import dataclass
+from functools import lru_cache
+from typing import TYPE_CHECKING
+
+import numpy as np
+from numpy.typing import ArrayLike, NDArray
+
+from builder.thermo.activity import Ideal
+from builder.thermo.cubic import CubicMixture, pr_ln_phi
+
+if TYPE_CHECKING:
+    from builder.thermo.equilibrium import BinarySystem
+
+__all__ = [
+    "CriticalPoint",
+    "CubicResult",
+    "bubble_pressure",
+    "bubble_temperature",
+    "cricondenbar",
+    "critical_point",
+    "dew_pressure",
+    "dew_temperature",
+    "k_values",
+    "solve_from",
+]
+
+FloatArray = NDArray[np.float64]
+BoolArray = NDArray[np.bool_]
+Residual = Callable[[FloatArray, FloatArray, BoolArray], tuple[FloatArray, FloatArray]]
+
+#: Coexisting phases closer than this in mole fraction are taken as the trivial solution.
+TRIVIAL_GAP = 1e-6
+
+#: How many grid steps the continuation walks from converged points into failed ones.
+CONTINUATION_SWEEPS = 12
+
+
+@dataclass(frozen=True)
+class CubicResult:
+    """Solved points of a φ–φ system (components in the system's order)."""
+
+    T_K: FloatArray
+    P_Pa: FloatArray
+    x1: FloatArray
+    y1: FloatArray
+    converged: BoolArray
+    ln_phi1: FloatArray
+    ln_phi2: FloatArray
+
+
+@dataclass(frozen=True)
+class CriticalPoint:
+    """A mixture critical point: composition, temperature and pressure."""
+
+    x1: float
+    T_K: float
+    P_Pa: float
+    #: The two-phase solutions met on the way: (T or P, liquid x1, vapour y1).
+    path: tuple[tuple[float, float, float], ...] = ()
+
+
+def _mixture(system: BinarySystem) -> CubicMixture:
+    mixture = system.vapour
+    if not isinstance(mixture, CubicMixture):
+        raise TypeError("a φ–φ system needs a CubicMixture as its vapour model")
+    return mixture
+
+
+def _ln_k(mix: CubicMixture, x: FloatArray, y: FloatArray, T: FloatArray, P: FloatArray
+          ) -> tuple[FloatArray, FloatArray]:
+    l1, l2 = mix.ln_phi_phase(x, T, P, "liquid")
+    v1, v2 = mix.ln_phi_phase(y, T, P, "vapour")
+    return l1 - v1, l2 - v2
+
+
+def k_values(mix: CubicMixture, x1: ArrayLike, T_K: ArrayLike, P_Pa: ArrayLike,
+             y1: ArrayLike | None = None) -> tuple[FloatArray, FloatArray]:
+    """``K_i = φ_i^L(x) / φ_i^V(y)``; without ``y1`` the vapour is found by substitution."""
+    x = np.asarray(x1, dtype=float)
+    T = np.asarray(T_K, dtype=float)
+    P = np.asarray(P_Pa, dtype=float)
+    if y1 is None:
+        y = x.copy()
+        k1, k2 = _ln_k(mix, x, y, T, P)
+        for _ in range(100):
+            s1, s2 = x * np.exp(k1), (1.0 - x) * np.exp(k2)
+            y = s1 / (s1 + s2)
+            k1, k2 = _ln_k(mix, x, y, T, P)
+    else:
+        k1, k2 = _ln_k(mix, x, np.asarray(y1, dtype=float), T, P)
+    return np.exp(k1), np.exp(k2)
+
+
+def _newton(residual: Residual, u: FloatArray, v: FloatArray,
+            u_bounds: tuple[float, float], v_bounds: tuple[float, float],
+            max_du: float, maxiter: int = 50) -> tuple[FloatArray, FloatArray, BoolArray]:
+    """Damped Newton for two unknowns per point, finite-difference Jacobian."""
+    u, v = u.astype(float).copy(), v.astype(float).copy()
+    n = u.size
+    active = np.isfinite(u) & np.isfinite(v)
+    converged = np.zeros(n, dtype=bool)
+    for iteration in range(maxiter):
+        if not active.any():
+            break
+        idx = np.flatnonzero(active)
+        mask = np.zeros(n, dtype=bool)
+        mask[idx] = True
+        ua, va = u[idx], v[idx]
+        r1, r2 = residual(ua, va, mask)
+        hu = 1e-7 * np.maximum(np.abs(ua), 1.0)
+        hv = np.where(va > 0.5, -1e-7, 1e-7)
+        s1, s2 = residual(ua + hu, va, mask)
+        t1, t2 = residual(ua, va + hv, mask)
+        j11, j21 = (s1 - r1) / hu, (s2 - r2) / hu
+        j12, j22 = (t1 - r1) / hv, (t2 - r2) / hv
+        det = j11 * j22 - j12 * j21
+        with np.errstate(divide="ignore", invalid="ignore"):
+            du = -(r1 * j22 - r2 * j12) / det
+            dv = -(j11 * r2 - j21 * r1) / det
+        bad = ~(np.isfinite(du) & np.isfinite(dv) & np.isfinite(r1) & np.isfinite(r2))
+        du = np.clip(np.where(bad, 0.0, du), -max_du, max_du)
+        dv = np.clip(np.where(bad, 0.0, dv), -0.2, 0.2)
+        u_new = np.clip(ua + du, *u_bounds)
+        v_new = np.clip(va + dv, *v_bounds)
+        size = np.maximum(np.abs(r1), np.abs(r2))
+        small = (size < 1e-11) & (
+            np.abs(u_new - ua) <= 1e-9 * np.maximum(np.abs(ua), 1.0)) & (
+            np.abs(v_new - va) <= 1e-9)
+        # Give up on points that make no headway (far from any root, or at the trivial one).
+        stuck = (iteration >= 12) & (size > 1e-6)
+        u[idx], v[idx] = u_new, v_new
+        converged[idx[small]] = True
+        active[idx[small | bad | stuck]] = False
+    return u, v, converged
+
+
+def _k_residual(mix: CubicMixture, x: FloatArray, y: FloatArray, T: FloatArray, P: FloatArray
+                ) -> tuple[FloatArray, FloatArray]:
+    k1, k2 = _ln_k(mix, x, y, T, P)
+    return x * np.exp(k1) - y, (1.0 - x) * np.exp(k2) - (1.0 - y)
+
+
+def _trivial(mix: CubicMixture, x: FloatArray, y: FloatArray, T: FloatArray, P: FloatArray
+             ) -> BoolArray:
+    """Points where the two "phases" are one: same composition and same density root."""
+    _, _, z_liquid = pr_ln_phi(x, T, P, mix.Tc_K, mix.Pc_Pa, mix.omega, mix.kij, "liquid")
+    _, _, z_vapour = pr_ln_phi(y, T, P, mix.Tc_K, mix.Pc_Pa, mix.omega, mix.kij, "vapour")
+    same_root = np.abs(z_liquid - z_vapour) <= 1e-7 * np.abs(z_vapour)
+    # A liquid no denser than its vapour is a spurious root pairing, not two phases.
+    inverted = z_liquid > z_vapour * (1.0 + 1e-12)
+    return np.asarray(((np.abs(x - y) < TRIVIAL_GAP) & same_root) | inverted, dtype=bool)
+
+
+def _solve(kind: str, system: BinarySystem, z: FloatArray, condition: FloatArray,
+           start: tuple[FloatArray, FloatArray] | None = None) -> CubicResult:
+    """One kind of point for every (z, condition); kinds as the public functions.
+
+    ``start``: first guesses of the free variable (T or P) and of the unknown
+    composition; default Raoult's law with the catalogue's vapour pressures.
+    """
+    mix = _mixture(system)
+    by_T = kind.endswith("temperature")
+    bubble = kind.startswith("bubble")
+    from builder.thermo import equilibrium as eq
+
+    if start is None:
+        raoult = eq.BinarySystem(system.psat1, system.psat2, Ideal())
+        guess = getattr(eq, kind)(raoult, z, condition)
+        free0, v0 = guess.T_K if by_T else guess.P_Pa, guess.y1 if bubble else guess.x1
+    else:
+        free0, v0 = start
+    u0 = np.array(free0, dtype=float) if by_T else np.log(np.asarray(free0, dtype=float))
+    v0 = np.array(v0, dtype=float)
+    fallback = ~(np.isfinite(u0) & np.isfinite(v0))
+    v0[fallback] = z[fallback]
+    if by_T:
+        u0[fallback] = 0.5 * (mix.Tc_K[0] + mix.Tc_K[1])
+    else:
+        u0[fallback] = np.log(0.5 * (mix.Pc_Pa[0] + mix.Pc_Pa[1]))
+
+    def residual(u: FloatArray, v: FloatArray, mask: BoolArray) -> tuple[FloatArray, FloatArray]:
+        T = u if by_T else condition[mask]
+        P = condition[mask] if by_T else np.exp(u)
+        x, y = (z[mask], v) if bubble else (v, z[mask])
+        return _k_residual(mix, x, y, T, P)
+
+    u_bounds = (1.0, 5.0 * max(mix.Tc_K)) if by_T else (np.log(1.0), np.log(1e9))
+    max_du = 10.0 if by_T else 0.3
+
+    def accept(u: FloatArray, v: FloatArray, ok: BoolArray, points: NDArray[np.intp]
+               ) -> BoolArray:
+        T = u if by_T else condition[points]
+        P = condition[points] if by_T else np.exp(u)
+        x, y = (z[points], v) if bubble else (v, z[points])
+        return ok & ~_trivial(mix, x, y, T, P)
+
+    u, v, ok = _newton(residual, u0, v0, u_bounds, (0.0, 1.0), max_du)
+    ok = accept(u, v, ok, np.arange(z.size))
+    # Continuation: retry failed points from their nearest converged neighbour, a grid
+    # step at a time (enough sweeps to walk into a critical region from the Raoult guesses).
+    for _ in range(CONTINUATION_SWEEPS):
+        failed = np.flatnonzero(~ok)
+        good = np.flatnonzero(ok)
+        if failed.size == 0 or good.size == 0:
+            break
+        same = np.isclose(condition[failed][:, None], condition[good][None, :], rtol=1e-12)
+        distance = np.where(same, np.abs(z[failed][:, None] - z[good][None, :]), np.inf)
+        nearest = good[np.argmin(distance, axis=1)]
+        reachable = np.isfinite(distance.min(axis=1))
+        # Only the failed points next to a converged one along z, a step at a time.
+        step_ok = reachable & (np.abs(z[failed] - z[nearest]) <= _grid_step(z, condition))
+        if not step_ok.any():
+            break
+        retry, start = failed[step_ok], nearest[step_ok]
+        ur, vr = u[start].copy(), v[start] + (z[retry] - z[start])
+        sub = np.zeros(z.size, dtype=bool)
+        sub[retry] = True
+        order = np.flatnonzero(sub)
+
+        def sub_residual(uu: FloatArray, vv: FloatArray, mask: BoolArray,
+                         _order: NDArray[np.intp] = order) -> tuple[FloatArray, FloatArray]:
+            full = np.zeros(z.size, dtype=bool)
+            full[_order[mask]] = True
+            return residual(uu, vv, full)
+
+        un, vn, okn = _newton(sub_residual, ur, np.clip(vr, 0.0, 1.0), u_bounds, (0.0, 1.0),
+                              max_du)
+        okn = accept(un, vn, okn, retry)
+        if not okn.any():
+            break
+        u[retry[okn]], v[retry[okn]] = un[okn], vn[okn]
+        ok[retry[okn]] = True
+    T = u if by_T else condition
+    P = condition if by_T else np.exp(u)
+    x, y = (z, v) if bubble else (v, z)
+    phi1, phi2 = mix.ln_phi_phase(y, T, P, "vapour")
+    return CubicResult(np.asarray(T, dtype=float), np.asarray(P, dtype=float), x, y, ok,
+                       phi1, phi2)
+
+
+def _grid_step(z: FloatArray, condition: FloatArray) -> float:
+    """The largest gap between neighbouring compositions (how far one continuation step goes)."""
+    values = np.unique(z)
+    return float(np.max(np.diff(values))) + 1e-12 if values.size > 1 else 1.0
+
+
+def solve_from(kind: str, system: BinarySystem, z: FloatArray, condition: FloatArray,
+               free: FloatArray, other: FloatArray) -> CubicResult:
+    """A bubble or dew solve (``kind`` as the function names) from given first guesses:
+    ``free`` the temperature or pressure, ``other`` the unknown phase's composition."""
+    return _solve(kind, system, z, condition, (free, other))
+
+
+def bubble_temperature(system: BinarySystem, x1: FloatArray, P_Pa: FloatArray) -> CubicResult:
+    """Bubble temperatures of liquids ``x1`` at ``P_Pa`` (flat arrays of equal length)."""
+    return _solve("bubble_temperature", system, x1, P_Pa)
+
+
+def bubble_pressure(system: BinarySystem, x1: FloatArray, T_K: FloatArray) -> CubicResult:
+    """Bubble pressures of liquids ``x1`` at ``T_K``."""
+    return _solve("bubble_pressure", system, x1, T_K)
+
+
+def dew_temperature(system: BinarySystem, y1: FloatArray, P_Pa: FloatArray) -> CubicResult:
+    """Dew temperatures of vapours ``y1`` at ``P_Pa``."""
+    return _solve("dew_temperature", system, y1, P_Pa)
+
+
+def dew_pressure(system: BinarySystem, y1: FloatArray, T_K: FloatArray) -> CubicResult:
+    """Dew pressures of vapours ``y1`` at ``T_K``."""
+    return _solve("dew_pressure", system, y1, T_K)
+
+
+def _flash(mix: CubicMixture, T: float, P: float, x0: float, y0: float
+           ) -> tuple[float, float, bool]:
+    """The coexisting ``x1, y1`` at fixed (T, P) from a nearby guess; False if none or trivial."""
+    T_arr, P_arr = np.array([T]), np.array([P])
+
+    def residual(u: FloatArray, v: FloatArray, mask: BoolArray) -> tuple[FloatArray, FloatArray]:
+        return _k_residual(mix, u, v, T_arr, P_arr)
+
+    x, y, ok = _newton(residual, np.array([x0]), np.array([y0]), (0.0, 1.0), (0.0, 1.0), 0.05)
+    good = bool(ok[0]) and not bool(_trivial(mix, x, y, T_arr, P_arr)[0]) and (
+        0.0 < float(x[0]) < 1.0 or abs(float(x[0]) - float(y[0])) > TRIVIAL_GAP)
+    return float(x[0]), float(y[0]), good
+
+
+def critical_point(system: BinarySystem, fixed: str, value: float, start_x1: float,
+                   start_y1: float, start_free: float, direction: float,
+                   gap: float = 2e-4) -> CriticalPoint | None:
+    """Locate the mixture critical point at fixed ``T`` (``fixed="T"``) or ``P``.
+
+    Starts from a converged two-phase point (liquid ``start_x1``, vapour
+    ``start_y1`` at the free variable ``start_free``: P for an isotherm, T for
+    an isobar) and moves the free variable in ``direction`` (+1 or -1) while a
+    non-trivial two-phase solution exists, shortening the step by four
+    whenever a trial finds none (past the end, or too far for the guess),
+    until the phases differ by less than ``gap``.  None if no end is found
+    within a factor of two.
+    """
+    mix = _mixture(system)
+
+    def at(free: float, x0: float, y0: float) -> tuple[float, float, bool]:
+        T, P = (value, free) if fixed == "T" else (free, value)
+        return _flash(mix, T, P, x0, y0)
+
+    lo, x_lo, y_lo = start_free, start_x1, start_y1
+    path = [(lo, x_lo, y_lo)]
+    step = 0.002 * abs(start_free)
+    smallest = 1e-10 * abs(start_free)
+    for _ in range(400):
+        if abs(x_lo - y_lo) < gap or step < smallest:
+            break
+        trial = lo + direction * step
+        x0, y0 = x_lo, y_lo
+        if len(path) >= 2:  # linear extrapolation along the path as the guess
+            f_prev, x_prev, y_prev = path[-2]
+            slope = (trial - lo) / (lo - f_prev)
+            x0 = min(max(x_lo + (x_lo - x_prev) * slope, 0.0), 1.0)
+            y0 = min(max(y_lo + (y_lo - y_prev) * slope, 0.0), 1.0)
+        x, y, ok = at(trial, x0, y0)
+        if not ok and (x0, y0) != (x_lo, y_lo):
+            x, y, ok = at(trial, x_lo, y_lo)
+        if ok:
+            lo, x_lo, y_lo = trial, x, y
+            path.append((lo, x, y))
+            step *= 1.5
+            if abs(lo - start_free) > abs(start_free):
+                return None
+        else:
+            # Past the critical point, or too far for the guess: shorten the step.
+            step /= 4.0
+    hi = lo + direction * step
+    free = 0.5 * (lo + hi)
+    x_c = 0.5 * (x_lo + y_lo)
+    T_c, P_c = (value, free) if fixed == "T" else (free, value)
+    return CriticalPoint(x1=x_c, T_K=T_c, P_Pa=P_c, path=tuple(path))
+
+
+@lru_cache(maxsize=32)
+def cricondenbar(system: BinarySystem, points: int = 8) -> float:
+    """The highest pressure at which the binary has two phases (the critical locus maximum).
+
+    The critical point of isotherms between the two critical temperatures,
+    each located by :func:`critical_point`; the two pure critical pressures
+    bound it from below.
+    """
+    mix = _mixture(system)
+    best = max(mix.Pc_Pa)
+    T_low, T_high = sorted(mix.Tc_K)
+    light = 0 if mix.Tc_K[0] < mix.Tc_K[1] else 1
+    grid = np.linspace(0.0, 1.0, 21)
+    for T in np.linspace(T_low, T_high, points + 2)[1:-1]:
+        z = grid if light == 0 else 1.0 - grid
+        result = bubble_pressure(system, z, np.full(z.size, T))
+        ok = np.flatnonzero(result.converged)
+        if ok.size == 0:
+            continue
+        top = ok[np.argmax(result.P_Pa[ok])]
+        point = critical_point(system, "T", float(T), float(result.x1[top]),
+                               float(result.y1[top]), float(result.P_Pa[top]), +1.0)
+        if point is not None:
+            best = max(best, point.P_Pa)
+    return best
