@@ -235,7 +235,7 @@ def test_small_site_has_every_page_figure_and_download(small_site: Path) -> None
 
 def test_atlas_json_and_csv(small_site: Path) -> None:
     data = json.loads((small_site / "atlas.json").read_text(encoding="utf-8"))
-    assert data["format"] == "vle-atlas/1"
+    assert data["format"] == "vle-atlas/2"
     pairs = {p["id"]: p for p in data["pairs"]}
     assert set(pairs) == set(SMALL)
     ethanol = pairs["ethanol--water"]
@@ -312,3 +312,28 @@ def test_strict_build_fails_on_an_external_resource(tmp_path: Path) -> None:
     report = assemble(content, SiteSettings(), tmp_path / "lax", tmp_path / "src2")
     assert any("cdn.example.org" in w for w in report.warnings)
     assert any("cdn.example.org" in p for p in verify_site(tmp_path / "lax").problems)
+
+
+def test_atlas_json_validates_against_its_published_schema(small_site: Path) -> None:
+    """docs/atlas-json.schema.json (validated with the jsonschema package); parameters are
+    objects of numbers and no value is a number written as text."""
+    import jsonschema
+
+    schema = json.loads((Path(__file__).parents[1] / "docs" / "atlas-json.schema.json")
+                        .read_text(encoding="utf-8"))
+    data = json.loads((small_site / "atlas.json").read_text(encoding="utf-8"))
+    jsonschema.Draft202012Validator(schema).validate(data)
+    nrtl = next(p for p in data["pairs"] if p["id"] == "ethanol--water")["parameters"]
+    # -57.9601 cal/mol (DECHEMA set as catalogued) = -242.5 J/mol with the thermochemical calorie
+    assert abs(nrtl["g12_J_per_mol"] - (-57.9601 * 4.184)) < 1e-9 and nrtl["alpha"] == 0.2937
+    quantity = re.compile(r"^\s*[-+]?\d+(\.\d*)?([eE][-+]?\d+)?\s*[A-Za-z°/]+\S*\s*$")
+    labels = {c["label"] for p in data["pairs"] for c in p["conditions"]}
+    stack: list[object] = [data]
+    while stack:
+        item = stack.pop()
+        if isinstance(item, dict):
+            stack.extend(item.values())
+        elif isinstance(item, list):
+            stack.extend(item)
+        elif isinstance(item, str):
+            assert not quantity.match(item) or item in labels, item

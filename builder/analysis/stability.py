@@ -23,6 +23,7 @@ Thermodynamics of Fluid-Phase Equilibria, 3rd ed., 1999, chapter 6.
 from __future__ import annotations
 
 import itertools
+from collections.abc import Callable
 from dataclasses import dataclass
 
 import numpy as np
@@ -140,10 +141,11 @@ def stable(model: ActivityModel, x1: ArrayLike, T_K: ArrayLike) -> NDArray[np.bo
 def _hull_gap(x: FloatArray, g: FloatArray) -> tuple[float, float] | None:
     """The widest edge of the lower convex hull of (x, g) that skips grid points."""
     hull: list[int] = []
-    for i in range(x.size):
+    xs, gs = x.tolist(), g.tolist()  # plain floats: the loop runs in the interpreter
+    for i in range(len(xs)):
         while len(hull) >= 2:
             a, b = hull[-2], hull[-1]
-            cross = (x[b] - x[a]) * (g[i] - g[a]) - (g[b] - g[a]) * (x[i] - x[a])
+            cross = (xs[b] - xs[a]) * (gs[i] - gs[a]) - (gs[b] - gs[a]) * (xs[i] - xs[a])
             if cross <= 0:
                 hull.pop()
             else:
@@ -152,9 +154,9 @@ def _hull_gap(x: FloatArray, g: FloatArray) -> tuple[float, float] | None:
     best: tuple[float, float] | None = None
     width = 0.0
     for a, b in itertools.pairwise(hull):
-        if b - a > 1 and x[b] - x[a] > width:
-            width = x[b] - x[a]
-            best = (float(x[a]), float(x[b]))
+        if b - a > 1 and xs[b] - xs[a] > width:
+            width = xs[b] - xs[a]
+            best = (xs[a], xs[b])
     return best
 
 
@@ -219,7 +221,8 @@ def three_phase_isobar(system: eq.BinarySystem, P_Pa: float, T_guess_K: float,
     (:func:`builder.analysis.phase_lines.three_phase_points`), accepted within
     ±40 K of the guess.  Otherwise, or when that fails, the search scans ±40 K
     around the guess for a sign change of ``ln P_bubble(binodal(T)) - ln P``
-    and refines it with Brent's method.
+    (10 K steps, then 2.5 K), then up to 200 K above it (nearly immiscible
+    liquids), and refines it with Brent's method.
     """
     if x1_guess is not None:
         point = three_phase_points(system, P_Pa, x1_guess[0], x1_guess[1], T_guess_K)
@@ -233,16 +236,44 @@ def three_phase_isobar(system: eq.BinarySystem, P_Pa: float, T_guess_K: float,
             return float("nan")
         return float(np.log(_split_bubble(system, split).P_Pa[0]) - np.log(P_Pa))
 
-    temperatures = T_guess_K + np.linspace(-40.0, 40.0, 33)
-    values = np.array([mismatch(float(T)) for T in temperatures])
-    for i in range(values.size - 1):
-        a, b = values[i], values[i + 1]
-        if np.isfinite(a) and np.isfinite(b) and a * b <= 0:
-            T3 = brentq(mismatch, temperatures[i], temperatures[i + 1], xtol=1e-10)
-            split = binodal(system.activity, T3)
-            if split is None:
-                return None
-            bubble = _split_bubble(system, split)
-            return ThreePhase(T_K=float(T3), P_Pa=P_Pa, x1_a=split.x1_a, x1_b=split.x1_b,
-                              y1=float(bubble.y1[0]))
+    known: dict[float, float] = {}
+
+    def cached(T: float) -> float:
+        if T not in known:
+            known[T] = mismatch(T)
+        return known[T]
+
+    # A coarse pass (10 K) first: each point is a binodal, the costly part.  The fine pass
+    # (2.5 K) catches a split that exists over a narrow range of temperatures only.
+    for points in (9, 33):
+        temperatures = T_guess_K + np.linspace(-40.0, 40.0, points)
+        values = np.array([cached(float(T)) for T in temperatures])
+        for i in range(values.size - 1):
+            a, b = values[i], values[i + 1]
+            if np.isfinite(a) and np.isfinite(b) and a * b <= 0:
+                return _three_phase_at(system, P_Pa, mismatch, temperatures[i],
+                                       temperatures[i + 1])
+        if np.isfinite(values).all() and (values < 0).all():
+            break  # two liquids throughout, all boiling above P: the line lies higher up
+    # Nearly immiscible liquids (hydrocarbons or chlorinated solvents with water) have
+    # metastable one-liquid bubble temperatures far below the three-phase line: go on
+    # upwards until the binodal liquids boil at P.
+    previous_T, previous = float(temperatures[-1]), float(values[-1])
+    for T in T_guess_K + np.arange(45.0, 205.0, 5.0):
+        value = cached(float(T))
+        if np.isfinite(previous) and np.isfinite(value) and previous * value <= 0:
+            return _three_phase_at(system, P_Pa, mismatch, previous_T, float(T))
+        previous_T, previous = float(T), value
     return None
+
+
+def _three_phase_at(system: eq.BinarySystem, P_Pa: float, mismatch: Callable[[float], float],
+                    T_low: float, T_high: float) -> ThreePhase | None:
+    """Refine a bracketed three-phase temperature with Brent's method."""
+    T3 = brentq(mismatch, T_low, T_high, xtol=1e-10)
+    split = binodal(system.activity, T3)
+    if split is None:
+        return None
+    bubble = _split_bubble(system, split)
+    return ThreePhase(T_K=float(T3), P_Pa=P_Pa, x1_a=split.x1_a, x1_b=split.x1_b,
+                      y1=float(bubble.y1[0]))

@@ -160,7 +160,7 @@ def _source(required: bool = True, help: str = "where these numbers come from") 
 # references/<id>.yaml
 # ---------------------------------------------------------------------------
 
-REFERENCE_KINDS = ("book", "article", "database", "handbook", "standard", "software")
+REFERENCE_KINDS = ("book", "article", "database", "handbook", "standard")
 
 REFERENCE = Block("reference", (
     Field("id", "slug", pattern=SLUG_PATTERN, help="equal to the file name without .yaml"),
@@ -217,8 +217,9 @@ GROUPS = Block("groups", (
           help="original UNIFAC subgroup counts, e.g. {CH3: 1, CH2: 1, OH: 1}"),
     Field("dortmund", "counts", required=False,
           help="modified UNIFAC (Dortmund) subgroup counts, e.g. {CH3: 1, CH2: 1, 'OH(P)': 1}"),
-    _source(),
-), help="UNIFAC subgroups of the component, per model variant (pairs/groups/ has the tables)")
+    _source(help="the published group definitions the assignment follows"),
+), help="UNIFAC subgroups for the predictive models, per model variant (names as spelled in "
+        "the group tables, pairs/groups/); at least one variant")
 
 PRESSURE_UNITS = ("Pa", "kPa", "bar", "mmHg", "atm", "MPa")
 

@@ -285,7 +285,8 @@ def _convert(entry: _Entry, spec: Field, raw: Any, name: str = "") -> float:
             number, unit = split_quantity(raw)
             value = to_si(number, unit, dimension)
     except (UnitError, OverflowError) as error:
-        entry.fail(name, expected + f" ({error})", raw)
+        detail = "" if str(error).startswith("expected") else f" ({error})"
+        entry.fail(name, expected + detail, raw)
         return math.nan
     if not spec.within(value):
         entry.fail(name, f"a {dimension.replace('_', ' ')} {_si_bounds(spec)}", raw)
@@ -725,6 +726,30 @@ _MODELS: dict[str, Callable[[_Entry, Component, Component], act.ActivityModel | 
 }
 
 
+def _typed_parameters(params: _Entry) -> dict[str, float | dict[str, float]]:
+    """The published parameters as numbers (SI, or the unit in the key), for ``atlas.json``."""
+    out: dict[str, float | dict[str, float]] = {}
+    units = {"b": "b_K", "d": "d_per_K"}
+    for name, raw in params.data.items():
+        if raw is None or name not in params.block.all_fields(params.variant):
+            continue
+        spec = params.spec(name)
+        try:
+            if spec.kind == "quantity":
+                number, unit = split_quantity(str(raw))
+                out[f"{name}_{SI_UNIT[spec.dimension].replace('/', '_per_')}"] = to_si(
+                    number, unit, spec.dimension)
+            elif isinstance(raw, Mapping):
+                out[str(name)] = {units.get(str(k), str(k)): (
+                    split_quantity(str(v))[0] if isinstance(v, str) else float(v))
+                    for k, v in raw.items() if v is not None}
+            elif isinstance(raw, (int, float)) and not isinstance(raw, bool):
+                out[str(name)] = float(raw)
+        except (UnitError, ValueError, TypeError):
+            continue  # already reported by the loader
+    return out
+
+
 def _missing_uniquac(components: Mapping[str, Component], ids: Iterable[str]) -> list[str]:
     return [cid for cid in ids if cid in components and (
         components[cid].uniquac_r is None or components[cid].uniquac_q is None)]
@@ -754,6 +779,7 @@ def _load_pair(entry: _Entry, components: Mapping[str, Component],
     source: Source | None = None
     quality = ""
     published: dict[str, str] = {}
+    typed: dict[str, float | dict[str, float]] = {}
     uniquac_missing: list[str] = []
     if model_block is not None:
         kind = model_block.get("model")
@@ -765,6 +791,7 @@ def _load_pair(entry: _Entry, components: Mapping[str, Component],
             model_block.used.add("parameters")
         if params is not None and kind and known:
             published = {str(k): str(v) for k, v in params.data.items()}
+            typed = _typed_parameters(params)
             uniquac_missing = (_missing_uniquac(components, ids) if kind == "uniquac" else [])
             model = _MODELS[kind](params, components[ids[0]], components[ids[1]])
             params.finish()
@@ -809,7 +836,7 @@ def _load_pair(entry: _Entry, components: Mapping[str, Component],
         id=pid, component1=first, component2=second, model=model, model_kind=kind,
         published_parameters=published, T_min_K=T_min, T_max_K=T_max, source=source,
         quality=quality, isobars_Pa=isobars, isotherms_K=isotherms, recorded=recorded,
-        notes=notes, file=entry.file, tags=tags, split_x1=split,
+        notes=notes, file=entry.file, tags=tags, split_x1=split, parameters=typed,
     )
 
 
