@@ -185,7 +185,7 @@ def _bare(results: PairResults) -> _BarePair:
 def test_pages_without_the_optional_result_fields(catalogue: Catalogue,
                                                   small_atlas: dict[str, PairResults]) -> None:
     bare = {pid: _bare(r) for pid, r in small_atlas.items()}
-    view, content = generate(SiteSettings(), catalogue, bare, workers=1)  # type: ignore[arg-type]
+    view, content = generate(SiteSettings(), catalogue, bare)  # type: ignore[arg-type]
     page = content.files["pairs/ethanol--water.md"].decode()
     assert "Phase diagrams" in page and "Distillation quick look" not in page
     assert "Reference checks" not in page
