@@ -124,7 +124,7 @@ class DaskExecutor:
             return
         futures = self._client.map(fn, list(tasks), pure=False)
         index = {future.key: i for i, future in enumerate(futures)}
-        for future in as_completed(futures):
+        for future in as_completed(futures, loop=self._client.loop):
             i = index[future.key]
             yield i, future.result()
             future.release()
