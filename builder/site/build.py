@@ -39,7 +39,13 @@ from builder.analysis.results import PairResults
 from builder.catalogue.loader import DEFAULT_CATALOGUE, load_catalogue
 from builder.errors import AtlasError
 from builder.site import DEFAULT_OUTPUT, TEMPLATES
-from builder.site.assemble import MARKER, assemble, check_output_folder
+from builder.site.assemble import (
+    MARKER,
+    SOURCE_MARKER,
+    AssembleError,
+    assemble,
+    check_output_folder,
+)
 from builder.site.cache import BuildCache, code_version, component_key, default_cache_dir, pair_key
 from builder.site.content import generate
 from builder.site.executor import Executor, LocalExecutor
@@ -99,6 +105,17 @@ def _assembly_key(settings: SiteSettings, strict: bool) -> str:
             digest.update(path.relative_to(TEMPLATES).as_posix().encode() + b"\0")
             digest.update(hashlib.sha256(path.read_bytes()).digest())
     return digest.hexdigest()[:16]
+
+
+def _keep_source(source: Path, kept: Path) -> None:
+    """Copy the generated sources to ``kept`` (``--keep-source``): a new or empty folder, or
+    one an earlier build kept sources in."""
+    if kept.exists():
+        if any(kept.iterdir()) and not (kept / SOURCE_MARKER).is_file():
+            raise AssembleError(f"{kept} exists and was not written by 'atlas build': "
+                                "refusing to replace it; choose another source folder")
+        shutil.rmtree(kept)
+    shutil.copytree(source, kept)
 
 
 def _run_work(tasks: list[tuple[str, str, Any]], fn: Callable[[Any], Any], label: str,
@@ -208,10 +225,7 @@ def build_site(catalogue_dir: Path | str = DEFAULT_CATALOGUE, out_dir: Path | st
             shutil.rmtree(assembly, ignore_errors=True)
             raise
         if source_dir is not None:
-            kept = Path(source_dir)
-            if kept.exists():
-                shutil.rmtree(kept)
-            shutil.copytree(assembly / "source", kept)
+            _keep_source(assembly / "source", Path(source_dir))
         shutil.copytree(html_dir, staging)
         stage("assemble", t)
 
