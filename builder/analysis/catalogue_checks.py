@@ -30,7 +30,7 @@ from dataclasses import dataclass
 
 import numpy as np
 
-from builder.analysis.results import PairResults, compute_atlas
+from builder.analysis.results import PairResults, compute_pair
 from builder.catalogue.loader import Catalogue
 from builder.catalogue.records import Component
 
@@ -137,11 +137,14 @@ def check_components(catalogue: Catalogue) -> list[ComponentCheck]:
 class CheckRun:
     components: list[ComponentCheck]
     pairs: dict[str, PairResults]
+    #: Files that did not load and pairs whose computation failed, one located line each.
+    problems: tuple[str, ...] = ()
 
     @property
     def failures(self) -> list[str]:
-        lines = [f"{c.file}: entry {c.component!r}, check {c.name!r}: expected {c.expected}; "
-                 f"found {c.found}" for c in self.components if c.passed is False]
+        lines = list(self.problems)
+        lines += [f"{c.file}: entry {c.component!r}, check {c.name!r}: expected {c.expected}; "
+                  f"found {c.found}" for c in self.components if c.passed is False]
         for result in self.pairs.values():
             for check in result.failed_checks:
                 lines.append(f"{result.pair.file}: entry {result.pair.id!r}, check "
@@ -149,8 +152,21 @@ class CheckRun:
         return lines
 
 
-def run_checks(catalogue: Catalogue) -> CheckRun:
-    return CheckRun(check_components(catalogue), compute_atlas(catalogue))
+def run_checks(catalogue: Catalogue, problems: Iterable[str] = ()) -> CheckRun:
+    """Every component and pair check; a pair whose computation fails is reported (file,
+    entry, what failed) and the other pairs are still checked."""
+    results: dict[str, PairResults] = {}
+    failed = list(problems)
+    for pid in sorted(catalogue.pairs):
+        pair = catalogue.pairs[pid]
+        try:
+            with np.errstate(all="ignore"), warnings.catch_warnings():
+                warnings.simplefilter("ignore", RuntimeWarning)
+                results[pid] = compute_pair(catalogue, pair)
+        except (ArithmeticError, ValueError) as error:
+            failed.append(f"{pair.file}: entry {pid!r}: expected a pair the solvers can "
+                          f"compute; found {type(error).__name__}: {error}")
+    return CheckRun(check_components(catalogue), results, tuple(failed))
 
 
 def _fmt(value: float | None, spec: str) -> str:

@@ -21,7 +21,7 @@ from builder.analysis import point
 from builder.catalogue.loader import DEFAULT_CATALOGUE, Catalogue, load_catalogue
 from builder.commands import report
 from builder.commands import site as site_commands
-from builder.errors import AtlasError
+from builder.errors import AtlasError, CatalogueError
 from builder.thermo.units import UnitError, format_pressure, format_temperature, parse_quantity
 
 __all__ = ["main"]
@@ -171,10 +171,12 @@ def _check(args: argparse.Namespace) -> int:
     from builder.analysis import catalogue_checks as catalogue_check
 
     only = [path.stem for path in args.files]
-    catalogue = load_catalogue(args.catalogue, only=only)
+    problems: list[CatalogueError] = []
+    catalogue = load_catalogue(args.catalogue, only=only, problems=problems)
     print(f"catalogue {args.catalogue}: {len(catalogue.references)} references, "
-          f"{len(catalogue.components)} components, {len(catalogue.pairs)} pairs: loaded")
-    run = catalogue_check.run_checks(catalogue)
+          f"{len(catalogue.components)} components, {len(catalogue.pairs)} pairs: loaded"
+          + (f"; {len(problems)} problem(s) in files that did not load" if problems else ""))
+    run = catalogue_check.run_checks(catalogue, [str(p) for p in problems])
     failures = run.failures
     for line in failures:
         print(f"FAIL {line}")
