@@ -230,7 +230,9 @@ def build_site(catalogue_dir: Path | str = DEFAULT_CATALOGUE, out_dir: Path | st
         stage("assemble", t)
 
         t = start("verify")
-        check = verify_site(staging)
+        memo = cache.load_memo("verify") if use_cache else {}
+        check = verify_site(staging, memo)
+        cache.save_memo("verify", memo)
         stage("verify", t)
         report.pairs, report.components = len(view.pairs), len(view.components)
         report.pages, report.files = check.html_pages, check.files

@@ -132,8 +132,23 @@ class BuildCache:
         self.hits += 1
         return value
 
+    def load_memo(self, name: str) -> dict[str, Any]:
+        """A dictionary kept between builds (e.g. the site check's parsed files)."""
+        try:
+            with (self.root / f"{name}.pickle").open("rb") as handle:
+                memo = pickle.load(handle)
+        except (OSError, pickle.UnpicklingError, EOFError, AttributeError, ImportError):
+            return {}
+        return memo if isinstance(memo, dict) and memo.get("\0code") == code_version() else {}
+
+    def save_memo(self, name: str, memo: dict[str, Any]) -> None:
+        memo["\0code"] = code_version()  # another version of the builder starts afresh
+        self._write(self.root / f"{name}.pickle", memo)
+
     def put(self, key: str, value: Any) -> None:
-        path = self._path(key)
+        self._write(self._path(key), value)
+
+    def _write(self, path: Path, value: Any) -> None:
         path.parent.mkdir(parents=True, exist_ok=True)
         temporary = path.with_name(f"{path.name}.{os.getpid()}.tmp")
         with temporary.open("wb") as handle:
