@@ -90,6 +90,9 @@ def test_incremental_rebuild_equals_a_cold_build(cold_and_incremental: dict) -> 
     # The cache and the staging folder live beside the site, never inside it.
     assert not (out / ".atlas-cache").exists()
     assert (out.parent / ".atlas-cache").is_dir()
+    # The edited pair's old entry is pruned: one entry per pair and per component remains.
+    stored = list((out.parent / ".atlas-cache" / "work").glob("*/*.pickle"))
+    assert len(stored) == len(PAIRS) + 4
     assert [p.name for p in out.parent.iterdir() if ".staging-" in p.name] == []
 
 

@@ -157,6 +157,7 @@ def build_site(catalogue_dir: Path | str = DEFAULT_CATALOGUE, out_dir: Path | st
     still refreshed for the next one).
     """
     out = Path(out_dir).resolve()
+    only = tuple(only)
     report = BuildReport(out_dir=out)
     say = progress or (lambda _message: None)
 
@@ -183,13 +184,17 @@ def build_site(catalogue_dir: Path | str = DEFAULT_CATALOGUE, out_dir: Path | st
 
         t = start("compute")
         pair_ids, component_ids = sorted(catalogue.pairs), sorted(catalogue.components)
+        pair_keys = {pid: pair_key(catalogue, pid, settings) for pid in pair_ids}
+        component_keys = {cid: component_key(catalogue, cid, settings) for cid in component_ids}
         pair_work = _run_work(
-            [(pid, pair_key(catalogue, pid, settings), pair_task(catalogue, pid, settings))
-             for pid in pair_ids], run_pair, "pairs", runner, cache, quiet_progress)
+            [(pid, pair_keys[pid], pair_task(catalogue, pid, settings)) for pid in pair_ids],
+            run_pair, "pairs", runner, cache, quiet_progress)
         component_work = _run_work(
-            [(cid, component_key(catalogue, cid, settings),
-              component_task(catalogue, cid, settings)) for cid in component_ids],
-            run_component, "components", runner, cache, quiet_progress)
+            [(cid, component_keys[cid], component_task(catalogue, cid, settings))
+             for cid in component_ids], run_component, "components", runner, cache,
+            quiet_progress)
+        if not only:  # the whole catalogue: what no file needs any more goes
+            cache.prune(set(pair_keys.values()) | set(component_keys.values()))
         stage("compute", t)
     finally:
         if own_executor:

@@ -132,6 +132,16 @@ class BuildCache:
         self.hits += 1
         return value
 
+    def prune(self, keep: set[str]) -> int:
+        """Delete stored work whose key is not in ``keep`` (after a build of the whole
+        catalogue: what no current file needs); the number of entries deleted."""
+        removed = 0
+        for path in (self.root / "work").glob("*/*.pickle"):
+            if path.stem not in keep:
+                path.unlink(missing_ok=True)
+                removed += 1
+        return removed
+
     def load_memo(self, name: str) -> dict[str, Any]:
         """A dictionary kept between builds (e.g. the site check's parsed files)."""
         try:
