@@ -64,12 +64,12 @@ def _figure_times(results: list, settings: SiteSettings) -> tuple[list[float], l
     return walls, cpus, sizes
 
 
-def bench_figures() -> None:
+def bench_figures(sample: int | None = None) -> None:
     from dataclasses import replace
 
     catalogue = load_catalogue()
     settings = SiteSettings()
-    pids = sorted(catalogue.pairs)
+    pids = sorted(catalogue.pairs)[:sample]
     fitted = [compute_pair(catalogue, catalogue.pairs[pid]) for pid in pids]
     one = []
     for pid in pids:
@@ -79,8 +79,8 @@ def bench_figures() -> None:
     print("## Figures")
     print("| pairs | figures per pair | per-pair time, median (wall / CPU) | mean SVG |")
     print("|---|---|---|---|")
-    for label, results in (("fitted (shipped, 39)", fitted),
-                           ("one isobar (predicted shape, 39)", one)):
+    for label, results in ((f"fitted (shipped, {len(pids)})", fitted),
+                           (f"one isobar (predicted shape, {len(pids)})", one)):
         walls, cpus, sizes = _figure_times(results, settings)
         print(f"| {label} | {len(sizes) / len(results):.1f} | "
               f"{statistics.median(walls) * 1e3:.0f} ms / {statistics.median(cpus) * 1e3:.0f} ms"
@@ -242,11 +242,13 @@ def main() -> None:
     parser.add_argument("--sizes", type=int, nargs="*", default=[100, 300, 1000, 3000])
     parser.add_argument("--skip", default="", help="comma-separated: figures,site,scaling")
     parser.add_argument("--workers", type=int, default=2)
+    parser.add_argument("--figure-pairs", type=int, default=None,
+                        help="time the figures of the first N shipped pairs only")
     args = parser.parse_args()
     skip = set(filter(None, args.skip.split(",")))
     print(f"machine: {os.cpu_count()} cores; load average {os.getloadavg()[0]:.1f} at start\n")
     if "figures" not in skip:
-        bench_figures()
+        bench_figures(args.figure_pairs)
     if "site" not in skip:
         bench_site(args.workers)
     if "scaling" not in skip:

@@ -9,7 +9,9 @@ writes the index the theme's search reads instead, one entry per page:
   the one-token search key ``cas67663`` that ``assets/js/atlas-search.js``
   rewrites a typed CAS number to), formulas, model and the one-sentence
   summary;
-* a component: name, synonyms, CAS number and key, formula, boiling point;
+* a component: name, synonyms (also as the entry's tags, which the theme weighs like
+  the title and shows under the result), CAS number and key, formula, boiling point,
+  weighed :data:`COMPONENT_BOOST` times a pair's entry;
 * the index, components, methods and catalogue pages: title and lead (the
   methods page with its section headings).
 
@@ -31,18 +33,28 @@ from typing import Any
 from builder.site.context import AtlasView
 from builder.site.pages import page_url
 
-__all__ = ["search_documents", "write_search_index"]
+__all__ = ["COMPONENT_BOOST", "search_documents", "write_search_index"]
+
+#: How much more a component's page weighs in the search than a pair's.
+COMPONENT_BOOST = 5.0
 
 _HEADING = re.compile(r"^#{1,3}\s+(.+)$", re.MULTILINE)
 
 
-def _entry(location: str, title: str, *parts: str) -> dict[str, str]:
+def _entry(location: str, title: str, *parts: str, boost: float = 1.0,
+           tags: tuple[str, ...] = ()) -> dict[str, Any]:
+    """One entry; the theme inserts title, text and tags as HTML, so each is escaped."""
     text = " ".join(p for p in parts if p)
-    return {"location": location, "title": html.escape(title, quote=False),
-            "text": html.escape(text, quote=False)}
+    entry: dict[str, Any] = {"location": location, "title": html.escape(title, quote=False),
+                             "text": html.escape(text, quote=False)}
+    if boost != 1.0:
+        entry["boost"] = boost  # the theme's search weighs the whole entry by it
+    if tags:
+        entry["tags"] = [html.escape(tag, quote=False) for tag in tags]
+    return entry
 
 
-def search_documents(view: AtlasView, methods_markdown: str = "") -> list[dict[str, str]]:
+def search_documents(view: AtlasView, methods_markdown: str = "") -> list[dict[str, Any]]:
     """One search entry per page, in a fixed order (pages, components, pairs)."""
     docs = [
         _entry("index.html", view.settings.title, view.settings.description,
@@ -54,9 +66,13 @@ def search_documents(view: AtlasView, methods_markdown: str = "") -> list[dict[s
                "Every pair's reference checks and every source."),
     ]
     for c in view.components:
+        # A component's own page comes before the pairs that name it (each pair of
+        # chloroform names chloroform too): its entry weighs more; its synonyms are its
+        # tags (shown under the result, and weighed like the title).
         docs.append(_entry(page_url(c.url), c.name, ", ".join(c.synonyms),
                            f"CAS {c.cas}", c.search_key, c.formula,
-                           f"normal boiling point {c.boiling_point}."))
+                           f"normal boiling point {c.boiling_point}.", boost=COMPONENT_BOOST,
+                           tags=c.synonyms))
     for p in view.pairs:
         names = []
         for c in (p.c1, p.c2):
@@ -65,7 +81,7 @@ def search_documents(view: AtlasView, methods_markdown: str = "") -> list[dict[s
     return docs
 
 
-def write_search_index(site_dir: Path, docs: list[dict[str, str]]) -> int:
+def write_search_index(site_dir: Path, docs: list[dict[str, Any]]) -> int:
     """Replace the theme's index in ``site_dir/search`` by ``docs``; the size in bytes."""
     folder = site_dir / "search"
     written = folder / "search_index.json"
