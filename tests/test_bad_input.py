@@ -198,7 +198,7 @@ def test_file_not_utf8_names_the_file(scratch: Path) -> None:
     path = _component(scratch)
     path.write_bytes(path.read_bytes().replace(b"Ethanol", b"\xc9thanol", 1))
     (problem,) = _problems(scratch)
-    assert "components/ethanol.yaml" in problem and "UTF-8" in problem and "line 2" in problem
+    assert "components/ethanol.yaml" in problem and "UTF-8" in problem and "line 3" in problem
 
 
 @pytest.mark.parametrize("old,new,field", [

@@ -34,8 +34,8 @@ from builder.analysis.results import PairResults, compute_pair
 from builder.catalogue.loader import Catalogue
 from builder.catalogue.records import Component
 
-__all__ = ["COOLPROP_HEOS", "ComponentCheck", "check_components", "markdown_report",
-           "run_checks"]
+__all__ = ["COOLPROP_HEOS", "ComponentCheck", "check_components", "failed_sets",
+           "markdown_report", "run_checks"]
 
 #: Catalogue ids of fluids that CoolProp 8 models with a reference (Helmholtz) equation
 #: of state, and CoolProp's names for them.
@@ -48,6 +48,8 @@ COOLPROP_HEOS = {
     "cyclopentane": "Cyclopentane", "diethyl-ether": "DiethylEther", "propane": "n-Propane",
     "n-butane": "n-Butane", "isobutane": "IsoButane", "propylene": "Propylene",
     "1-2-dichloroethane": "Dichloroethane", "1-butene": "1-Butene",
+    "n-nonane": "n-Nonane", "n-decane": "n-Decane", "n-undecane": "n-Undecane",
+    "n-dodecane": "n-Dodecane", "2-methylpentane": "Isohexane",
 }
 
 BOILING_POINT_TOLERANCE_K = 0.5
@@ -150,6 +152,26 @@ class CheckRun:
                 lines.append(f"{result.pair.file}: entry {result.pair.id!r}, check "
                              f"{check.name!r}: {check.detail} (reference: {check.reference})")
         return lines
+
+
+def failed_sets(catalogue: Catalogue, atlas: dict[str, PairResults]) -> dict[str, list[str]]:
+    """Pair id -> the located failures of every pair whose checks fail (its own reference
+    checks, or a failed check of one of its components): what ``atlas build`` withholds."""
+    components: dict[str, list[str]] = {}
+    for c in check_components(catalogue):
+        if c.passed is False:
+            components.setdefault(c.component, []).append(
+                f"{c.file}: entry {c.component!r}, check {c.name!r}: expected {c.expected}; "
+                f"found {c.found}")
+    out: dict[str, list[str]] = {}
+    for pid, result in atlas.items():
+        lines = [f"{result.pair.file}: entry {pid!r}, check {check.name!r}: {check.detail}"
+                 for check in result.failed_checks]
+        for cid in (result.pair.component1, result.pair.component2):
+            lines += components.get(cid, [])
+        if lines:
+            out[pid] = lines
+    return out
 
 
 def run_checks(catalogue: Catalogue, problems: Iterable[str] = ()) -> CheckRun:

@@ -39,9 +39,10 @@ __all__ = [
 #: ``coefficient``: a signed number with exactly the unit ``unit``; ``tfunction``: a number or
 #: ``{a, b: '... K', c, d: '... 1/K'}`` (``a + b/T + c ln T + d T``); ``label``: a text or a
 #: number (a volume or page); ``range``: two quantities, low then high; ``quantities``: a list
-#: of quantities; ``block``/``blocks``: a nested mapping / a list of them.
+#: of quantities; ``block``/``blocks``: a nested mapping / a list of them; ``counts``: a
+#: mapping of names to positive whole numbers (UNIFAC subgroups), checked by its reader.
 KINDS = ("text", "slug", "number", "integer", "quantity", "coefficient", "choice", "boolean",
-         "texts", "label", "tfunction", "range", "quantities", "block", "blocks")
+         "texts", "label", "tfunction", "range", "quantities", "block", "blocks", "counts")
 
 
 @dataclass(frozen=True)
@@ -159,7 +160,7 @@ def _source(required: bool = True, help: str = "where these numbers come from") 
 # references/<id>.yaml
 # ---------------------------------------------------------------------------
 
-REFERENCE_KINDS = ("book", "article", "database", "handbook", "standard", "software")
+REFERENCE_KINDS = ("book", "article", "database", "handbook", "standard")
 
 REFERENCE = Block("reference", (
     Field("id", "slug", pattern=SLUG_PATTERN, help="equal to the file name without .yaml"),
@@ -211,6 +212,15 @@ UNIQUAC_RQ = Block("uniquac", (
     _source(),
 ), help="UNIQUAC pure-component parameters (needed by UNIQUAC pairs)")
 
+GROUPS = Block("groups", (
+    Field("unifac", "counts", required=False,
+          help="original UNIFAC subgroup counts, e.g. {CH3: 1, CH2: 1, OH: 1}"),
+    Field("dortmund", "counts", required=False,
+          help="modified UNIFAC (Dortmund) subgroup counts, e.g. {CH3: 1, CH2: 1, 'OH(P)': 1}"),
+    _source(help="the published group definitions the assignment follows"),
+), help="UNIFAC subgroups for the predictive models, per model variant (names as spelled in "
+        "the group tables, pairs/groups/); at least one variant")
+
 PRESSURE_UNITS = ("Pa", "kPa", "bar", "mmHg", "atm", "MPa")
 
 VAPOUR_PRESSURE = Block("vapour_pressure", (
@@ -250,6 +260,7 @@ COMPONENT = Block("component", (
     Field("hazard", "block", block=HAZARD),
     Field("constants", "block", block=CONSTANTS),
     Field("uniquac", "block", block=UNIQUAC_RQ, required=False),
+    Field("groups", "block", block=GROUPS, required=False),
     Field("vapour_pressure", "block", block=VAPOUR_PRESSURE),
 ), help="one pure component")
 

@@ -31,6 +31,8 @@ from typing import Any, TypeVar
 
 from builder.catalogue import fields
 from builder.catalogue.fields import AZEOTROPE_KINDS, QUALITIES, Block, Field
+from builder.catalogue.group_tables import DEFAULT_GROUPS, group_tables
+from builder.catalogue.groups import parse_groups
 from builder.catalogue.reader import ReadProblem, read_yaml
 from builder.catalogue.records import (
     PAIR_SEPARATOR,
@@ -283,7 +285,8 @@ def _convert(entry: _Entry, spec: Field, raw: Any, name: str = "") -> float:
             number, unit = split_quantity(raw)
             value = to_si(number, unit, dimension)
     except (UnitError, OverflowError) as error:
-        entry.fail(name, expected + f" ({error})", raw)
+        detail = "" if str(error).startswith("expected") else f" ({error})"
+        entry.fail(name, expected + detail, raw)
         return math.nan
     if not spec.within(value):
         entry.fail(name, f"a {dimension.replace('_', ' ')} {_si_bounds(spec)}", raw)
@@ -385,6 +388,12 @@ def _read_quantities(entry: _Entry, spec: Field, raw: Any) -> tuple[float, ...]:
     return tuple(_convert(entry, spec, item) for item in raw)
 
 
+def _read_counts(entry: _Entry, spec: Field, raw: Any) -> Any:
+    """The mapping as written: its names are checked against the group tables by
+    :func:`builder.catalogue.groups.parse_groups`, which knows them."""
+    return raw
+
+
 def _read_block(entry: _Entry, spec: Field, raw: Any) -> _Entry | None:
     return entry.child(spec.name)
 
@@ -398,7 +407,7 @@ _READERS: dict[str, Callable[[_Entry, Field, Any], Any]] = {
     "quantity": _read_quantity, "coefficient": _read_coefficient, "choice": _read_choice,
     "boolean": _read_boolean, "texts": _read_texts, "label": _read_label,
     "tfunction": _read_tfunction, "range": _read_range, "quantities": _read_quantities,
-    "block": _read_block, "blocks": _read_blocks,
+    "block": _read_block, "blocks": _read_blocks, "counts": _read_counts,
 }
 
 _EMPTY: dict[str, Any] = {
@@ -533,7 +542,8 @@ _CONSTANTS = ("molar_mass", "normal_boiling_point", "critical_temperature",
               "critical_pressure", "acentric_factor", "liquid_molar_volume")
 
 
-def _load_component(entry: _Entry, references: Mapping[str, Reference]) -> Component | None:
+def _load_component(entry: _Entry, references: Mapping[str, Reference],
+                    groups_folder: Path = DEFAULT_GROUPS) -> Component | None:
     cid = entry.get("id")
     name = entry.get("name")
     synonyms = entry.get("synonyms") or ()
@@ -568,6 +578,13 @@ def _load_component(entry: _Entry, references: Mapping[str, Reference]) -> Compo
         r, q = uniquac.get("r"), uniquac.get("q")
         uniquac_source = _source(uniquac, references)
         uniquac.finish()
+
+    groups_block = entry.child("groups")
+    groups = None
+    if groups_block is not None:
+        groups = parse_groups(groups_block, lambda b: _source(b, references),
+                              lambda v: group_tables(v, groups_folder), formula,
+                              values.get("molar_mass", math.nan))
 
     vp_block = entry.child("vapour_pressure")
     vapour_pressure = vp_source = None
@@ -608,6 +625,7 @@ def _load_component(entry: _Entry, references: Mapping[str, Reference]) -> Compo
         vapour_pressure=vapour_pressure, vapour_pressure_source=vp_source,
         constants_sources=sources, hazard=hazard, hazard_source=hazard_source,
         uniquac_r=r, uniquac_q=q, uniquac_source=uniquac_source, file=entry.file,
+        groups=groups,
     )
 
 
@@ -708,6 +726,30 @@ _MODELS: dict[str, Callable[[_Entry, Component, Component], act.ActivityModel | 
 }
 
 
+def _typed_parameters(params: _Entry) -> dict[str, float | dict[str, float]]:
+    """The published parameters as numbers (SI, or the unit in the key), for ``atlas.json``."""
+    out: dict[str, float | dict[str, float]] = {}
+    units = {"b": "b_K", "d": "d_per_K"}
+    for name, raw in params.data.items():
+        if raw is None or name not in params.block.all_fields(params.variant):
+            continue
+        spec = params.spec(name)
+        try:
+            if spec.kind == "quantity":
+                number, unit = split_quantity(str(raw))
+                out[f"{name}_{SI_UNIT[spec.dimension].replace('/', '_per_')}"] = to_si(
+                    number, unit, spec.dimension)
+            elif isinstance(raw, Mapping):
+                out[str(name)] = {units.get(str(k), str(k)): (
+                    split_quantity(str(v))[0] if isinstance(v, str) else float(v))
+                    for k, v in raw.items() if v is not None}
+            elif isinstance(raw, (int, float)) and not isinstance(raw, bool):
+                out[str(name)] = float(raw)
+        except (UnitError, ValueError, TypeError):
+            continue  # already reported by the loader
+    return out
+
+
 def _missing_uniquac(components: Mapping[str, Component], ids: Iterable[str]) -> list[str]:
     return [cid for cid in ids if cid in components and (
         components[cid].uniquac_r is None or components[cid].uniquac_q is None)]
@@ -737,6 +779,7 @@ def _load_pair(entry: _Entry, components: Mapping[str, Component],
     source: Source | None = None
     quality = ""
     published: dict[str, str] = {}
+    typed: dict[str, float | dict[str, float]] = {}
     uniquac_missing: list[str] = []
     if model_block is not None:
         kind = model_block.get("model")
@@ -748,6 +791,7 @@ def _load_pair(entry: _Entry, components: Mapping[str, Component],
             model_block.used.add("parameters")
         if params is not None and kind and known:
             published = {str(k): str(v) for k, v in params.data.items()}
+            typed = _typed_parameters(params)
             uniquac_missing = (_missing_uniquac(components, ids) if kind == "uniquac" else [])
             model = _MODELS[kind](params, components[ids[0]], components[ids[1]])
             params.finish()
@@ -792,7 +836,7 @@ def _load_pair(entry: _Entry, components: Mapping[str, Component],
         id=pid, component1=first, component2=second, model=model, model_kind=kind,
         published_parameters=published, T_min_K=T_min, T_max_K=T_max, source=source,
         quality=quality, isobars_Pa=isobars, isotherms_K=isotherms, recorded=recorded,
-        notes=notes, file=entry.file, tags=tags, split_x1=split,
+        notes=notes, file=entry.file, tags=tags, split_x1=split, parameters=typed,
     )
 
 
@@ -911,7 +955,8 @@ def load_catalogue(root: Path | str = DEFAULT_CATALOGUE, only: Iterable[str] = (
         return out
 
     references = load_all("references", _load_reference)
-    components = load_all("components", lambda e: _load_component(e, references))
+    groups_folder = root / "groups" if (root / "groups").is_dir() else DEFAULT_GROUPS
+    components = load_all("components", lambda e: _load_component(e, references, groups_folder))
     broken = {p.stem for p in _files(root / "components")} - set(components)
     needs_uniquac: dict[str, list[str]] = {}
     pairs = load_all("binaries", lambda e: _load_pair(e, components, references, broken,

@@ -17,6 +17,7 @@ from builder.thermo.vapour_pressure import VapourPressure
 __all__ = [
     "SLUG",
     "Component",
+    "ComponentGroups",
     "PairRecord",
     "RecordedAzeotrope",
     "RecordedBehaviour",
@@ -88,6 +89,26 @@ class Source:
 
 
 @dataclass(frozen=True)
+class ComponentGroups:
+    """A component's UNIFAC subgroups: name -> count, per model variant.
+
+    ``unifac`` uses the subgroups of original UNIFAC, ``dortmund`` those of modified
+    UNIFAC (Dortmund); either is ``None`` where the published tables have no groups
+    for the substance.  Names are spelled as in the group tables (``pairs/groups/``).
+    """
+
+    unifac: dict[str, int] | None
+    dortmund: dict[str, int] | None
+    source: Source
+
+    def of(self, variant: str) -> dict[str, int] | None:
+        """The subgroups of one variant: ``"unifac"`` or ``"dortmund"``."""
+        if variant not in ("unifac", "dortmund"):
+            raise ValueError(f"unknown UNIFAC variant {variant!r}; expected unifac or dortmund")
+        return self.unifac if variant == "unifac" else self.dortmund
+
+
+@dataclass(frozen=True)
 class Component:
     """A pure component with its constants (SI) and vapour-pressure correlation."""
 
@@ -111,6 +132,8 @@ class Component:
     uniquac_q: float | None = None
     uniquac_source: Source | None = None
     file: str = ""
+    #: UNIFAC subgroup counts for the predictive models (None: not assigned yet).
+    groups: ComponentGroups | None = None
 
     def names(self) -> tuple[str, ...]:
         """Every spelling a user may type for this component."""
@@ -158,6 +181,10 @@ class PairRecord:
     notes: str = ""
     file: str = ""
     tags: tuple[str, ...] = field(default=())
+    #: The published parameters as numbers, in SI or with the unit in the key: an energy
+    #: ``g12_J_per_mol``, a temperature function ``{"a": ..., "b_K": ..., "c": ...,
+    #: "d_per_K": ...}``, a plain dimensionless value as a number.
+    parameters: dict[str, float | dict[str, float]] = field(default_factory=dict)
     #: Optional split for the distillation quick look: mole fractions of component 1 in
     #: distillate, bottoms and a saturated-liquid feed.  None: 95/5 % of the lighter one.
     split_x1: tuple[float, float, float] | None = None

@@ -43,6 +43,9 @@ def add_parsers(commands: Any) -> None:
     build.add_argument("--no-cache", action="store_true",
                        help="a cold build: recompute every pair and re-assemble every page "
                             "(the cache is refreshed for the next build)")
+    build.add_argument("--allow-failed-checks", action="store_true",
+                       help="also publish parameter sets that fail their reference checks, "
+                            "each with a banner on its page (default: such sets are withheld)")
     build.add_argument("--cache-dir", type=Path, default=None, metavar="DIR",
                        help="the build cache (default: .atlas-cache/ beside the output "
                             "folder)")
@@ -69,6 +72,7 @@ def run(args: argparse.Namespace) -> int:
                                 strict=args.strict, source_dir=args.keep_source,
                                 only=args.only, executor=executor, use_cache=not args.no_cache,
                                 cache_dir=args.cache_dir,
+                                allow_failed_checks=args.allow_failed_checks,
                                 progress=lambda line: print(line, flush=True))
         finally:
             executor.close()

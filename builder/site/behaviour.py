@@ -1,13 +1,12 @@
-"""A pair's behaviour at the summary pressure, as a key and in words (index filter, summary).
-"""
+"""A pair's behaviour at the summary pressure, as a key and in words (index filter, summary)."""
 
 from __future__ import annotations
 
 from builder.analysis.results import ConditionResult, PairResults
-from builder.site.display import optional
 from builder.site.settings import SiteSettings
 
 __all__ = ["BEHAVIOURS", "KIND_WORDS", "behaviour", "summary_condition"]
+
 
 #: Behaviour at the summary pressure, for the summary sentence and the index filter.
 BEHAVIOURS = {
@@ -21,6 +20,7 @@ BEHAVIOURS = {
     "not-published": "no isobar at the summary pressure",
 }
 
+
 #: Isotherm azeotrope kinds in words.
 KIND_WORDS = {
     "minimum-boiling": "minimum-boiling azeotrope",
@@ -29,7 +29,6 @@ KIND_WORDS = {
     "minimum-pressure": "minimum-pressure azeotrope (maximum-boiling)",
 }
 
-#: Words in a hazard summary that say the component is not classified as hazardous.
 
 def summary_condition(results: PairResults, settings: SiteSettings) -> ConditionResult | None:
     """The isobar at the summary pressure, if the pair publishes it."""
@@ -43,10 +42,10 @@ def behaviour(result: ConditionResult | None) -> str:
     """The behaviour key (see :data:`BEHAVIOURS`) of one isobar."""
     if result is None:
         return "not-published"
-    three = optional(result, "three_phase")
+    three = result.three_phase
     azeotropes = result.azeotropes
     if three is not None:
-        if optional(three, "heterogeneous_azeotrope") or any(a.heterogeneous for a in azeotropes):
+        if three.heterogeneous_azeotrope or any(a.heterogeneous for a in azeotropes):
             return "heterogeneous"
         if not azeotropes:
             return "liquid-split"
@@ -61,5 +60,3 @@ def behaviour(result: ConditionResult | None) -> str:
     if not result.azeotrope_search_complete:
         return "uncertain"
     return "zeotropic"
-
-

@@ -31,10 +31,11 @@ import hashlib
 import shutil
 import time
 from collections.abc import Callable, Iterable
-from dataclasses import dataclass, field
+from dataclasses import dataclass, field, replace
 from pathlib import Path
 from typing import Any
 
+from builder.analysis.catalogue_checks import failed_sets
 from builder.analysis.results import PairResults
 from builder.catalogue.loader import DEFAULT_CATALOGUE, load_catalogue
 from builder.errors import AtlasError
@@ -83,11 +84,22 @@ class BuildReport:
     timings_s: dict[str, float] = field(default_factory=dict)
     warnings: list[str] = field(default_factory=list)
     external_links: int = 0
+    #: Pairs not published because they fail their checks (pair id -> failures).
+    withheld: dict[str, list[str]] = field(default_factory=dict)
+    #: Pairs published with a banner despite failed checks (``allow_failed_checks``).
+    published_failing: dict[str, list[str]] = field(default_factory=dict)
 
     def summary(self) -> str:
         stages = ", ".join(f"{k} {v:.1f} s" for k, v in self.timings_s.items())
+        notes = ""
+        if self.withheld:
+            notes += (f"Not published (failed checks; see 'atlas check'): "
+                      f"{', '.join(sorted(self.withheld))}.\n")
+        if self.published_failing:
+            notes += (f"Published with a failed-checks banner: "
+                      f"{', '.join(sorted(self.published_failing))}.\n")
         index = self.out_dir / "index.html"
-        return (f"Built the atlas: {self.pairs} pairs, {self.components} components, "
+        return notes + (f"Built the atlas: {self.pairs} pairs, {self.components} components, "
                 f"{self.pages} pages, {self.files} files, {self.size_bytes / 1e6:.1f} MB in "
                 f"{sum(self.timings_s.values()):.1f} s ({stages}); {self.computed} worked on "
                 f"({self.executor}), {self.cached} from the cache.\n"
@@ -148,6 +160,7 @@ def build_site(catalogue_dir: Path | str = DEFAULT_CATALOGUE, out_dir: Path | st
                source_dir: Path | str | None = None, only: Iterable[str] = (),
                workers: int | None = None, executor: Executor | None = None,
                use_cache: bool = True, cache_dir: Path | str | None = None,
+               allow_failed_checks: bool = False,
                quiet_progress: bool = False,
                progress: Callable[[str], None] | None = None) -> BuildReport:
     """Build the site from ``catalogue_dir`` into ``out_dir``; raise on any failure.
@@ -204,6 +217,19 @@ def build_site(catalogue_dir: Path | str = DEFAULT_CATALOGUE, out_dir: Path | st
     pair_figs: dict[str, tuple[Figure, ...]] = {pid: pair_work[pid].figures for pid in pair_ids}
     comp_figs = {cid: component_work[cid].figure for cid in component_ids}
     del pair_work, component_work
+    failed = failed_sets(catalogue, atlas)
+    if failed and not allow_failed_checks:
+        # The same validation as `atlas check`: a set that fails its checks is withheld.
+        atlas = {pid: r for pid, r in atlas.items() if pid not in failed}
+        pair_figs = {pid: f for pid, f in pair_figs.items() if pid not in failed}
+        catalogue = replace(catalogue, pairs={pid: p for pid, p in catalogue.pairs.items()
+                                              if pid not in failed})
+        report.withheld = failed
+    elif failed:
+        report.published_failing = failed
+    if not atlas:
+        raise BuildFailure("no pair passes its checks; nothing to publish:\n" + "\n".join(
+            f"  - {line}" for lines in failed.values() for line in lines))
 
     t = start("render")
     view, content = generate(settings, catalogue, atlas, pair_figs, comp_figs)

@@ -12,6 +12,7 @@ from builder.site.text import fmt, one_line, safe_id
 
 __all__ = ["ComponentView", "component_view", "pair_title", "source_text"]
 
+
 #: Words in a hazard summary that say the component is not classified as hazardous.
 _NOT_HAZARDOUS = ("no ghs", "not classified", "no hazard")
 

@@ -4,7 +4,9 @@
 component pages (:mod:`.component_view`), pair pages (:mod:`.pair_view`),
 the index rows (:mod:`.index_view`), with the behaviour classification of
 :mod:`.behaviour` and the unit formatting of :mod:`.display`.  Nothing here
-computes thermodynamics: every number is read from the results and the
+computes thermodynamics: every number is read from the results (one typed
+record, :mod:`builder.analysis.record`, whose every field exists; a section
+is left out where its field is ``None`` by its documented meaning) and the
 catalogue records.  The names below are re-exported for the rest of the site
 package.
 """
@@ -17,7 +19,7 @@ from builder.analysis.results import PairResults
 from builder.catalogue.loader import Catalogue
 from builder.site.behaviour import BEHAVIOURS, behaviour, summary_condition
 from builder.site.component_view import ComponentView, component_view
-from builder.site.display import Display, Matrix, Row, matrix, optional
+from builder.site.display import Display, Matrix, Row, matrix
 from builder.site.index_view import IndexRow
 from builder.site.pair_view import ConditionView, PairView, condition_slug, pair_view
 from builder.site.settings import SiteSettings
@@ -37,7 +39,6 @@ __all__ = [
     "build_views",
     "condition_slug",
     "matrix",
-    "optional",
     "summary_condition",
 ]
 
@@ -52,7 +53,6 @@ class AtlasView:
     references: tuple[tuple[str, str], ...]  # (id, citation)
     models: tuple[str, ...]
     behaviours: tuple[tuple[str, str], ...] = field(default=())
-
 
 
 def build_views(settings: SiteSettings, catalogue: Catalogue,

@@ -1,9 +1,8 @@
 """Display formatting: temperatures and pressures in the site's units, label-value rows.
 
-Nothing here computes thermodynamics: values are read from the results
-(:func:`optional` is the one place that reads a result field that older
-results may lack) and formatted for the page.  Views hold plain strings and
-numbers, never markup: the templates escape every value (:mod:`.text`).
+Nothing here computes thermodynamics: values are read from the results and
+formatted for the page.  Views hold plain strings and numbers, never markup:
+the templates escape every value (:mod:`.text`).
 """
 
 from __future__ import annotations
@@ -11,7 +10,6 @@ from __future__ import annotations
 import math
 from collections.abc import Sequence
 from dataclasses import dataclass
-from typing import Any
 
 import numpy as np
 from numpy.typing import NDArray
@@ -20,13 +18,7 @@ from builder.analysis.results import ConditionResult
 from builder.site.settings import SiteSettings
 from builder.site.text import fmt
 
-__all__ = ["NO_MATRIX", "Display", "Matrix", "Row", "alpha_range", "matrix", "optional"]
-
-
-def optional(obj: object, name: str) -> Any:
-    """A result field that may not exist yet, or ``None`` (the section is then left out)."""
-    return getattr(obj, name, None)
-
+__all__ = ["NO_MATRIX", "Display", "Matrix", "Row", "alpha_range", "matrix"]
 
 
 @dataclass(frozen=True)
@@ -69,7 +61,6 @@ class Display:
         return f"{fmt(self.T_value(result.condition), 6)} {self.T_unit}"
 
 
-
 @dataclass(frozen=True)
 class Row:
     """A label and a value for a two-column table."""
@@ -106,8 +97,6 @@ def matrix(columns: Sequence[str], per_column: Sequence[Sequence[Row]]) -> Matri
                                         for label in labels))
 
 
-
 def alpha_range(result: ConditionResult) -> str:
     v = result.volatility
     return f"{fmt(v.alpha_min, 3)} – {fmt(v.alpha_max, 3)}"
-

@@ -7,7 +7,7 @@ from dataclasses import dataclass
 from builder.analysis.results import ConditionResult, PairResults
 from builder.site.behaviour import BEHAVIOURS
 from builder.site.component_view import ComponentView
-from builder.site.display import Display, alpha_range, optional
+from builder.site.display import Display, alpha_range
 from builder.site.text import fmt, safe_id
 
 __all__ = ["IndexRow", "index_row"]
@@ -38,11 +38,10 @@ def index_row(results: PairResults, c1: ComponentView, c2: ComponentView,
                summary: ConditionResult | None, key: str, display: Display) -> IndexRow:
     pid = safe_id(results.pair.id)
     az = summary.azeotropes[0] if summary is not None and summary.azeotropes else None
-    three = optional(summary, "three_phase") if summary is not None else None
-    az_T = az.T_K if az is not None else (optional(three, "T_K") if key == "heterogeneous"
-                                          else None)
-    az_x = az.x1 if az is not None else (optional(three, "y1") if key == "heterogeneous"
-                                         else None)
+    three = summary.three_phase if summary is not None else None
+    hetero = three if key == "heterogeneous" else None
+    az_T = az.T_K if az is not None else (hetero.T_K if hetero is not None else None)
+    az_x = az.x1 if az is not None else (hetero.y1 if hetero is not None else None)
     nan = float("nan")
     return IndexRow(
         pair_id=pid, url=f"pairs/{pid}.md", title=f"{c1.name} + {c2.name}",
