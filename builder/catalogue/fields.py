@@ -440,7 +440,7 @@ VAPOUR = Block("vapour", (
 PAIR = Block("pair", (
     Field("id", "text", pattern=PAIR_ID_PATTERN,
           help="the two component ids joined by '--', equal to the file name"),
-    Field("components", "texts", min_items=2, max_items=2, unique=True,
+    Field("components", "texts", min_items=2, max_items=2, unique=True, pattern=SLUG_PATTERN,
           help="component 1 and component 2 (ids of files in components/)"),
     Field("activity", "block", block=ACTIVITY, required=False,
           help="the liquid activity model (every pair but a peng-robinson one)"),

@@ -342,6 +342,9 @@ def _read_texts(entry: _Entry, spec: Field, raw: Any) -> tuple[str, ...]:
                  else f"{spec.min_items} or more")
         entry.fail(spec.name, f"a list of {count} texts", raw)
         return ()
+    if spec.pattern and not all(re.match(spec.pattern, v) for v in values):
+        entry.fail(spec.name, "a list of " + _PATTERN_TEXT.get(spec.pattern, "texts") + "s", raw)
+        return ()
     if spec.unique and len(set(values)) != len(values):
         entry.fail(spec.name, "a list without repeated items", raw)
         return ()

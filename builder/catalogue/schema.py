@@ -83,7 +83,8 @@ def _field_schema(spec: Field) -> dict[str, Any]:
     elif kind == "boolean":
         schema = {"type": "boolean"}
     elif kind == "texts":
-        schema = {"type": "array", "items": dict(_TEXT)}
+        items = {"type": "string", "pattern": spec.pattern} if spec.pattern else dict(_TEXT)
+        schema = {"type": "array", "items": items}
         if spec.min_items:
             schema["minItems"] = spec.min_items
         if spec.max_items is not None:
