@@ -153,7 +153,7 @@ def _without_sections(results: PairResults) -> PairResults:
 def test_pages_leave_out_the_sections_whose_field_is_none(
         catalogue: Catalogue, small_atlas: dict[str, PairResults]) -> None:
     bare = {pid: _without_sections(r) for pid, r in small_atlas.items()}
-    view, content = generate(SiteSettings(), catalogue, bare, workers=1)
+    view, content = generate(SiteSettings(), catalogue, bare)
     page = content.files["pairs/ethanol--water.md"].decode()
     assert "Phase diagrams" in page and "Distillation quick look" not in page
     assert "Reference checks" not in page
@@ -283,7 +283,7 @@ def test_preview_serves_on_loopback_only(small_site: Path) -> None:
     preview = Preview(small_site, "127.0.0.1", 0, quiet=True).start()
     try:
         with urllib.request.urlopen(preview.url + "atlas.json", timeout=10) as response:
-            assert json.loads(response.read())["format"] == "vle-atlas/1"
+            assert json.loads(response.read())["format"] == "vle-atlas/2"
     finally:
         preview.close()
 

@@ -17,6 +17,7 @@ import numpy as np
 from builder.analysis.compare import Change, PairSummary, compare, summarise
 from builder.analysis.results import compute_pair
 from builder.catalogue.loader import load_catalogue
+from builder.catalogue.records import PAIR_SEPARATOR
 from builder.catalogue.revisions import affected_pairs
 from builder.errors import CatalogueError
 
@@ -78,9 +79,10 @@ def _summaries(root: Path, wanted: set[str]) -> tuple[dict[str, PairSummary], li
         pair = catalogue.pairs.get(pid)
         if pair is None:
             own = [str(e) for e in problems if Path(e.file).stem == pid or e.entry == pid]
-            uses = [str(e) for e in problems if e.file.startswith(
-                str(Path(root.name) / "components"))]
-            out[pid] = PairSummary(id=pid, error="; ".join(own or uses) or "does not load")
+            ids = set(pid.split(PAIR_SEPARATOR))
+            uses = [str(e) for e in problems if Path(e.file).parent.name == "components"
+                    and (Path(e.file).stem in ids or e.entry in ids)]
+            out[pid] = PairSummary(id=pid, error="; ".join((own + uses)[:5]) or "does not load")
             continue
         try:
             with np.errstate(all="ignore"), warnings.catch_warnings():

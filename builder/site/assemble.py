@@ -18,7 +18,6 @@ from __future__ import annotations
 import html
 import logging
 import os
-import shutil
 from dataclasses import dataclass, field
 from pathlib import Path
 from typing import Any
@@ -87,35 +86,75 @@ def _config(settings: SiteSettings, docs_dir: Path, site_dir: Path) -> dict[str,
     return config
 
 
-def _write_sources(content: SiteContent, source_dir: Path) -> Path:
+def _wanted(content: SiteContent) -> dict[str, bytes]:
+    files = {path.relative_to(TEMPLATES).as_posix(): path.read_bytes()
+             for path in sorted((TEMPLATES / "assets").rglob("*")) if path.is_file()}
+    files.update(content.files)
+    return files
+
+
+def _write_sources(content: SiteContent, source_dir: Path) -> tuple[Path, list[str]]:
+    """Bring ``source_dir/docs`` to ``content`` (and the static assets).
+
+    Only files whose bytes change are written, so an unchanged file keeps its
+    time stamp and an incremental assembly leaves its page alone; files no longer
+    generated are removed.  Returns the docs folder and the removed paths.
+    """
     docs_dir = source_dir / "docs"
     marker = source_dir / SOURCE_MARKER
-    if docs_dir.exists():
-        if any(docs_dir.iterdir()) and not marker.is_file():
-            raise AssembleError(f"{docs_dir} exists and was not written by 'atlas build': "
-                                "refusing to replace it; choose another source folder")
-        shutil.rmtree(docs_dir)
-    docs_dir.mkdir(parents=True)
+    if docs_dir.exists() and any(docs_dir.iterdir()) and not marker.is_file():
+        raise AssembleError(f"{docs_dir} exists and was not written by 'atlas build': "
+                            "refusing to replace it; choose another source folder")
+    docs_dir.mkdir(parents=True, exist_ok=True)
     marker.write_text("Generated sources of 'atlas build'; replaced by the next build.\n",
                       encoding="utf-8")
-    shutil.copytree(TEMPLATES / "assets", docs_dir / "assets")
-    for path, data in content:
+    wanted = _wanted(content)
+    existing = {p.relative_to(docs_dir).as_posix() for p in docs_dir.rglob("*") if p.is_file()}
+    removed = sorted(existing - set(wanted))
+    for path in removed:
+        (docs_dir / path).unlink()
+    for path, data in wanted.items():
         target = docs_dir / path
+        if path in existing and target.stat().st_size == len(data) and target.read_bytes() == data:
+            continue
         target.parent.mkdir(parents=True, exist_ok=True)
         target.write_bytes(data)
-    return docs_dir
+    for folder in sorted((p for p in docs_dir.rglob("*") if p.is_dir()), reverse=True):
+        if not any(folder.iterdir()):
+            folder.rmdir()
+    return docs_dir, removed
+
+
+#: The warning mkdocs logs on every incremental ("dirty") build.  The atlas's pages do not
+#: depend on one another's HTML (a fixed, four-entry navigation; the search index is written
+#: by the atlas), so an incremental assembly equals a full one: the test suite checks it.
+_DIRTY_WARNING = "A 'dirty' build is being performed"
+
+
+def _not_the_dirty_warning(record: logging.LogRecord) -> bool:
+    return not record.getMessage().startswith(_DIRTY_WARNING)
 
 
 def assemble(content: SiteContent, settings: SiteSettings, out_dir: Path, source_dir: Path,
-             strict: bool = False) -> AssembleReport:
-    """Write ``content`` under ``source_dir`` and build the HTML site into ``out_dir``."""
+             strict: bool = False, incremental: bool = False) -> AssembleReport:
+    """Write ``content`` under ``source_dir`` and build the HTML site into ``out_dir``.
+
+    ``incremental``: ``source_dir`` and ``out_dir`` hold the previous assembly of
+    the same templates and settings; only pages whose source changed are rebuilt.
+    """
     out_dir = out_dir.resolve()
     source_dir = source_dir.resolve()
     check_output_folder(out_dir)
     if source_dir == out_dir or out_dir in source_dir.parents or source_dir in out_dir.parents:
         raise AssembleError("the source folder and the output folder must not contain each "
                             "other")
-    docs_dir = _write_sources(content, source_dir)
+    docs_dir, removed = _write_sources(content, source_dir)
+    incremental = incremental and (out_dir / MARKER).is_file()
+    (out_dir / MARKER).unlink(missing_ok=True)  # written back when the assembly is complete
+    if incremental:
+        for path in removed:  # an incremental mkdocs build keeps stale output files
+            (out_dir / (path[:-3] + ".html" if path.endswith(".md") else path)).unlink(
+                missing_ok=True)
     config_file = source_dir / "mkdocs.yml"
     config_file.write_text(yaml.safe_dump(_config(settings, docs_dir, out_dir),
                                           sort_keys=False, allow_unicode=True),
@@ -127,6 +166,8 @@ def assemble(content: SiteContent, settings: SiteSettings, out_dir: Path, source
     from mkdocs.config import load_config
 
     collector = _Collect()
+    build_logger = logging.getLogger("mkdocs.commands.build")
+    build_logger.addFilter(_not_the_dirty_warning)
     logger = logging.getLogger("mkdocs")
     logger.addHandler(collector)
     previous, propagate = logger.level, logger.propagate
@@ -134,13 +175,14 @@ def assemble(content: SiteContent, settings: SiteSettings, out_dir: Path, source
     logger.propagate = False  # reported by the caller, once
     try:
         config = load_config(config_file=str(config_file), strict=strict)
-        build(config)
+        build(config, dirty=incremental)
     except mkdocs_exceptions.MkDocsException as error:
         details = "; ".join(collector.messages)
         raise AssembleError(f"mkdocs could not build the site: {error}"
                             + (f" ({details})" if details else "")) from None
     finally:
         logger.removeHandler(collector)
+        build_logger.removeFilter(_not_the_dirty_warning)
         logger.setLevel(previous)
         logger.propagate = propagate
     (out_dir / MARKER).write_text("Written by 'atlas build'; the next build replaces this "

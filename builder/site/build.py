@@ -1,42 +1,72 @@
 """``atlas build``: the whole pipeline, stage by stage.
 
-    settings -> load and validate the catalogue -> compute every pair ->
-    generate figures, downloads and pages (in memory) -> assemble with mkdocs ->
-    verify the finished site
+    settings -> load and validate the catalogue -> compute and draw every pair
+    (through an executor, from the cache where nothing changed) -> generate
+    downloads and pages (in memory) -> assemble with mkdocs -> write the search
+    index -> verify -> publish
 
-Everything is read and computed before anything is written; a catalogue
-error, a computation error or a template error leaves the output folder as it
-was.  The verification fails the build whenever the site would load anything
-from another host or refers to a file it does not contain; ``strict``
+Everything is read and computed before anything is written.  The site is
+assembled in a staging folder beside the output folder, verified there, and
+only then swapped in by two renames (:mod:`.publish`): a build that fails --
+a catalogue error, a computation error, a template error, a failed check --
+or is killed leaves the previously published site as it was.  The
+verification fails the build whenever the site would load anything from
+another host or refers to a file it does not contain; ``strict``
 additionally fails on any warning of the assembler (the privacy plugin's
 external-asset warnings among them).
+
+The build cache (:mod:`.cache`, ``.atlas-cache/`` beside the output folder
+unless told otherwise) holds each pair's results and figures under a hash of
+what they depend on, and the previous assembly, so that a rebuild after an
+edit recomputes one pair and re-assembles the pages that changed; its output
+is byte-identical to a cold build (``use_cache=False``).
+
+Each stage's start is announced (``  stage: <name>`` in :data:`STAGE_MARKER`
+form) on the progress channel, and its duration when it ends.
 """
 
 from __future__ import annotations
 
-import tempfile
+import hashlib
+import shutil
 import time
 from collections.abc import Callable, Iterable
 from dataclasses import dataclass, field, replace
 from pathlib import Path
+from typing import Any
 
 from builder.analysis.catalogue_checks import failed_sets
-from builder.analysis.results import compute_atlas
+from builder.analysis.results import PairResults
 from builder.catalogue.loader import DEFAULT_CATALOGUE, load_catalogue
 from builder.errors import AtlasError
-from builder.site import DEFAULT_OUTPUT
-from builder.site.assemble import assemble, check_output_folder
+from builder.site import DEFAULT_OUTPUT, TEMPLATES
+from builder.site.assemble import (
+    MARKER,
+    SOURCE_MARKER,
+    AssembleError,
+    assemble,
+    check_output_folder,
+)
+from builder.site.cache import BuildCache, code_version, component_key, default_cache_dir, pair_key
 from builder.site.content import generate
-from builder.site.settings import load_settings
+from builder.site.executor import Executor, LocalExecutor
+from builder.site.figures import Figure
+from builder.site.progress import Progress
+from builder.site.publish import publish, recover, staging_folder
+from builder.site.search import search_documents, write_search_index
+from builder.site.settings import SiteSettings, load_settings
 from builder.site.verify import verify_site
+from builder.site.work import component_task, pair_task, run_component, run_pair
 
-__all__ = ["DEFAULT_OUTPUT", "BuildFailure", "BuildReport", "build_site"]
+__all__ = ["DEFAULT_OUTPUT", "STAGE_MARKER", "BuildFailure", "BuildReport", "build_site"]
 
+#: How the start of a stage is announced on the progress channel.
+STAGE_MARKER = "  stage: {}"
 
 
 class BuildFailure(AtlasError):
     """The finished site failed its checks (an external resource, a missing file, a
-    warning in a strict build)."""
+    warning in a strict build), or work came from a different version of the builder."""
 
 
 @dataclass
@@ -47,6 +77,10 @@ class BuildReport:
     pages: int = 0
     files: int = 0
     size_bytes: int = 0
+    search_index_bytes: int = 0
+    computed: int = 0  # pairs and components worked on in this build (not from the cache)
+    cached: int = 0  # taken from the cache
+    executor: str = ""
     timings_s: dict[str, float] = field(default_factory=dict)
     warnings: list[str] = field(default_factory=list)
     external_links: int = 0
@@ -67,18 +101,76 @@ class BuildReport:
         index = self.out_dir / "index.html"
         return notes + (f"Built the atlas: {self.pairs} pairs, {self.components} components, "
                 f"{self.pages} pages, {self.files} files, {self.size_bytes / 1e6:.1f} MB in "
-                f"{sum(self.timings_s.values()):.1f} s ({stages}).\n"
+                f"{sum(self.timings_s.values()):.1f} s ({stages}); {self.computed} worked on "
+                f"({self.executor}), {self.cached} from the cache.\n"
                 f"Open {index.as_uri()} in a browser (no server needed), or run "
                 "'atlas serve' for a local preview.")
+
+
+def _assembly_key(settings: SiteSettings, strict: bool) -> str:
+    """What a previous assembly must share with this one to be reused (templates, assets,
+    settings, code)."""
+    digest = hashlib.sha256(code_version().encode())
+    digest.update(repr((settings, strict)).encode())
+    for path in sorted(TEMPLATES.rglob("*")):
+        if path.is_file():
+            digest.update(path.relative_to(TEMPLATES).as_posix().encode() + b"\0")
+            digest.update(hashlib.sha256(path.read_bytes()).digest())
+    return digest.hexdigest()[:16]
+
+
+def _keep_source(source: Path, kept: Path) -> None:
+    """Copy the generated sources to ``kept`` (``--keep-source``): a new or empty folder, or
+    one an earlier build kept sources in."""
+    if kept.exists():
+        if any(kept.iterdir()) and not (kept / SOURCE_MARKER).is_file():
+            raise AssembleError(f"{kept} exists and was not written by 'atlas build': "
+                                "refusing to replace it; choose another source folder")
+        shutil.rmtree(kept)
+    shutil.copytree(source, kept)
+
+
+def _run_work(tasks: list[tuple[str, str, Any]], fn: Callable[[Any], Any], label: str,
+              executor: Executor, cache: BuildCache, quiet: bool) -> dict[str, Any]:
+    """Run the tasks ``(id, cache key, task)`` not in the cache; every output by id."""
+    outputs: dict[str, Any] = {}
+    todo: list[tuple[str, str, Any]] = []
+    for ident, key, task in tasks:
+        hit = cache.get(key)
+        if hit is not None:
+            outputs[ident] = hit
+        else:
+            todo.append((ident, key, task))
+    with Progress(label, len(todo), enabled=not quiet) as progress:
+        for index, output in executor.run(fn, [task for _i, _k, task in todo]):
+            ident, key, _task = todo[index]
+            if output.code_version != code_version():
+                raise BuildFailure(f"{ident} was worked on by another version of the builder "
+                                   f"({output.code_version[:12]}, this is "
+                                   f"{code_version()[:12]}): install the same version on every "
+                                   "worker")
+            cache.put(key, output)
+            outputs[ident] = output
+            progress.step()
+    return outputs
 
 
 def build_site(catalogue_dir: Path | str = DEFAULT_CATALOGUE, out_dir: Path | str = DEFAULT_OUTPUT,
                *, settings_file: Path | str | None = None, strict: bool = False,
                source_dir: Path | str | None = None, only: Iterable[str] = (),
-               workers: int | None = None, allow_failed_checks: bool = False,
+               workers: int | None = None, executor: Executor | None = None,
+               use_cache: bool = True, cache_dir: Path | str | None = None,
+               allow_failed_checks: bool = False,
+               quiet_progress: bool = False,
                progress: Callable[[str], None] | None = None) -> BuildReport:
-    """Build the site from ``catalogue_dir`` into ``out_dir``; raise on any failure."""
+    """Build the site from ``catalogue_dir`` into ``out_dir``; raise on any failure.
+
+    ``executor`` runs the per-pair work (default: :class:`LocalExecutor` with
+    ``workers`` processes); ``use_cache=False`` is a cold build (the cache is
+    still refreshed for the next one).
+    """
     out = Path(out_dir).resolve()
+    only = tuple(only)
     report = BuildReport(out_dir=out)
     say = progress or (lambda _message: None)
 
@@ -86,17 +178,50 @@ def build_site(catalogue_dir: Path | str = DEFAULT_CATALOGUE, out_dir: Path | st
         report.timings_s[name] = time.perf_counter() - started
         say(f"  {name:<9} {report.timings_s[name]:6.1f} s")
 
+    def start(name: str) -> float:
+        say(STAGE_MARKER.format(name))
+        return time.perf_counter()
+
+    recover(out)  # a build killed between the two renames of publishing
     check_output_folder(out)  # refuse early, before minutes of work
-    t = time.perf_counter()
-    settings = load_settings(settings_file)
-    catalogue = load_catalogue(catalogue_dir, only=only)
-    stage("load", t)
-    t = time.perf_counter()
-    atlas = compute_atlas(catalogue)
+    cache_root = Path(cache_dir).resolve() if cache_dir is not None else default_cache_dir(out)
+    cache = BuildCache(cache_root, read=use_cache)
+    own_executor = executor is None
+    runner: Executor = executor if executor is not None else LocalExecutor(workers)
+    report.executor = runner.name
+    try:
+        t = start("load")
+        settings = load_settings(settings_file)
+        catalogue = load_catalogue(catalogue_dir, only=only)
+        stage("load", t)
+
+        t = start("compute")
+        pair_ids, component_ids = sorted(catalogue.pairs), sorted(catalogue.components)
+        pair_keys = {pid: pair_key(catalogue, pid, settings) for pid in pair_ids}
+        component_keys = {cid: component_key(catalogue, cid, settings) for cid in component_ids}
+        pair_work = _run_work(
+            [(pid, pair_keys[pid], pair_task(catalogue, pid, settings)) for pid in pair_ids],
+            run_pair, "pairs", runner, cache, quiet_progress)
+        component_work = _run_work(
+            [(cid, component_keys[cid], component_task(catalogue, cid, settings))
+             for cid in component_ids], run_component, "components", runner, cache,
+            quiet_progress)
+        if not only:  # the whole catalogue: what no file needs any more goes
+            cache.prune(set(pair_keys.values()) | set(component_keys.values()))
+        stage("compute", t)
+    finally:
+        if own_executor:
+            runner.close()
+    report.computed, report.cached = cache.misses, cache.hits
+    atlas: dict[str, PairResults] = {pid: pair_work[pid].results for pid in pair_ids}
+    pair_figs: dict[str, tuple[Figure, ...]] = {pid: pair_work[pid].figures for pid in pair_ids}
+    comp_figs = {cid: component_work[cid].figure for cid in component_ids}
+    del pair_work, component_work
     failed = failed_sets(catalogue, atlas)
     if failed and not allow_failed_checks:
         # The same validation as `atlas check`: a set that fails its checks is withheld.
         atlas = {pid: r for pid, r in atlas.items() if pid not in failed}
+        pair_figs = {pid: f for pid, f in pair_figs.items() if pid not in failed}
         catalogue = replace(catalogue, pairs={pid: p for pid, p in catalogue.pairs.items()
                                               if pid not in failed})
         report.withheld = failed
@@ -105,25 +230,56 @@ def build_site(catalogue_dir: Path | str = DEFAULT_CATALOGUE, out_dir: Path | st
     if not atlas:
         raise BuildFailure("no pair passes its checks; nothing to publish:\n" + "\n".join(
             f"  - {line}" for lines in failed.values() for line in lines))
-    stage("compute", t)
-    t = time.perf_counter()
-    view, content = generate(settings, catalogue, atlas, workers=workers)
+
+    t = start("render")
+    view, content = generate(settings, catalogue, atlas, pair_figs, comp_figs)
+    methods = content.files.get("methods.md", b"").decode("utf-8")
+    del atlas, pair_figs, comp_figs
     stage("render", t)
-    t = time.perf_counter()
-    with tempfile.TemporaryDirectory(prefix="atlas-src-") as scratch:
-        where = Path(source_dir) if source_dir is not None else Path(scratch)
-        assembled = assemble(content, settings, out, where, strict=strict)
-    stage("assemble", t)
-    t = time.perf_counter()
-    check = verify_site(out)
-    stage("verify", t)
-    report.pairs, report.components = len(view.pairs), len(view.components)
-    report.pages, report.files, report.size_bytes = check.html_pages, check.files, check.size_bytes
-    report.warnings = assembled.warnings
-    report.external_links = check.external_links
-    if check.problems:
-        shown = "\n".join(f"  - {p}" for p in check.problems[:50])
-        more = len(check.problems) - 50
-        raise BuildFailure(f"the built site failed {len(check.problems)} check(s):\n{shown}"
-                           + (f"\n  ... and {more} more" if more > 0 else ""))
+
+    t = start("assemble")
+    assembly = cache_root / "assembly" / _assembly_key(settings, strict)
+    html_dir = assembly / "html"
+    if assembly.exists() and (not use_cache or not (html_dir / MARKER).is_file()):
+        shutil.rmtree(assembly)  # a cold build, or an assembly that did not finish
+    for other in (cache_root / "assembly").glob("*"):
+        if other != assembly and other.is_dir():
+            shutil.rmtree(other)  # another version's assembly: never reused
+    staging = staging_folder(out)
+    try:
+        try:
+            assembled = assemble(content, settings, html_dir, assembly / "source",
+                                 strict=strict, incremental=True)
+            report.search_index_bytes = write_search_index(html_dir,
+                                                           search_documents(view, methods))
+        except BaseException:
+            shutil.rmtree(assembly, ignore_errors=True)
+            raise
+        if source_dir is not None:
+            _keep_source(assembly / "source", Path(source_dir))
+        shutil.copytree(html_dir, staging)
+        stage("assemble", t)
+
+        t = start("verify")
+        memo = cache.load_memo("verify") if use_cache else {}
+        check = verify_site(staging, memo)
+        cache.save_memo("verify", memo)
+        stage("verify", t)
+        report.pairs, report.components = len(view.pairs), len(view.components)
+        report.pages, report.files = check.html_pages, check.files
+        report.size_bytes = check.size_bytes
+        report.warnings = assembled.warnings
+        report.external_links = check.external_links
+        if check.problems:
+            shown = "\n".join(f"  - {p}" for p in check.problems[:50])
+            more = len(check.problems) - 50
+            raise BuildFailure(f"the built site failed {len(check.problems)} check(s):\n{shown}"
+                               + (f"\n  ... and {more} more" if more > 0 else ""))
+
+        t = start("publish")
+        publish(staging, out)
+        stage("publish", t)
+    finally:
+        if staging.exists():
+            shutil.rmtree(staging, ignore_errors=True)
     return report

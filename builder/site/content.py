@@ -10,11 +10,8 @@ every part is a safe slug, so no catalogue text can choose where a file goes.
 from __future__ import annotations
 
 import json
-import multiprocessing
-import os
 import re
-from collections.abc import Iterator, Mapping
-from concurrent.futures import ProcessPoolExecutor
+from collections.abc import Iterator, Mapping, Sequence
 from dataclasses import dataclass, field
 from typing import Any
 
@@ -61,48 +58,18 @@ class SiteContent:
         return sum(len(v) for v in self.files.values())
 
 
-# -- figures, in parallel where the machine allows ---------------------------
-_JOBS: dict[str, Any] = {}
-
-
-def _pair_job(pid: str) -> tuple[str, tuple[Figure, ...]]:
-    return pid, pair_figures(_JOBS["atlas"][pid], _JOBS["settings"])
-
-
-def _component_job(cid: str) -> tuple[str, Figure]:
-    return cid, component_figure(_JOBS["catalogue"].components[cid], _JOBS["settings"])
-
-
-def _render_figures(settings: SiteSettings, catalogue: Catalogue,
-                    atlas: Mapping[str, PairResults], workers: int
-                    ) -> tuple[dict[str, tuple[Figure, ...]], dict[str, Figure]]:
-    _JOBS.update(atlas=atlas, settings=settings, catalogue=catalogue)
-    try:
-        pairs, components = sorted(atlas), sorted(catalogue.components)
-        if workers > 1 and "fork" in multiprocessing.get_all_start_methods():
-            # Forked workers share the computed results; nothing is pickled but ids.
-            context = multiprocessing.get_context("fork")
-            with ProcessPoolExecutor(max_workers=workers, mp_context=context) as pool:
-                pair_figs = dict(pool.map(_pair_job, pairs, chunksize=2))
-                comp_figs = dict(pool.map(_component_job, components, chunksize=4))
-        else:
-            pair_figs = dict(map(_pair_job, pairs))
-            comp_figs = dict(map(_component_job, components))
-    finally:
-        _JOBS.clear()
-    return pair_figs, comp_figs
-
-
-def default_workers() -> int:
-    return max(1, min(4, os.cpu_count() or 1))
-
-
 def generate(settings: SiteSettings, catalogue: Catalogue, atlas: Mapping[str, PairResults],
-             workers: int | None = None) -> tuple[AtlasView, SiteContent]:
-    """Every source file of the site, from the computed atlas (nothing is written)."""
+             pair_figs: Mapping[str, Sequence[Figure]] | None = None,
+             comp_figs: Mapping[str, Figure] | None = None) -> tuple[AtlasView, SiteContent]:
+    """Every source file of the site, from the computed atlas and its figures (nothing is
+    written).  Figures not given are drawn here, in this process (the build draws them
+    through its executor, see :mod:`.work`)."""
     view = build_views(settings, catalogue, dict(atlas))
-    pair_figs, comp_figs = _render_figures(settings, catalogue, atlas,
-                                           default_workers() if workers is None else workers)
+    if pair_figs is None:
+        pair_figs = {pid: pair_figures(results, settings) for pid, results in atlas.items()}
+    if comp_figs is None:
+        comp_figs = {cid: component_figure(component, settings)
+                     for cid, component in catalogue.components.items()}
     content = SiteContent()
     pair_data: dict[str, dict[str, Any]] = {}
     for pv in view.pairs:
@@ -116,8 +83,8 @@ def generate(settings: SiteSettings, catalogue: Catalogue, atlas: Mapping[str, P
                                              allow_nan=False) + "\n")
         for fig in pair_figs[pv.id]:
             content.add(fig.path, fig.svg)
-    for fig in comp_figs.values():
-        content.add(fig.path, fig.svg)
+    for cid in sorted(comp_figs):
+        content.add(comp_figs[cid].path, comp_figs[cid].svg)
     content.add("atlas.json", atlas_json(view, catalogue, atlas, pair_data))
     pages = render_pages(view, pair_figs, comp_figs, {})
     for path, text in pages.items():

@@ -9,20 +9,26 @@ disk:
   ``//host`` -- and must exist inside the site; local ``<a href>`` targets must
   exist too.  Links to other hosts are counted (the generated pages have none).
 * CSS: ``url()`` and ``@import`` local and existing (the vendored KaTeX fonts).
-* SVG figures: no script, no reference to another host.
+* SVG figures, parsed as XML: no ``<script>`` or ``<foreignObject>`` element, no
+  event-handler attribute (``on...``), no reference (``href``, ``url()`` in a
+  style) to another host.  Text inside ``<text>`` is text, whatever it says: a
+  component named "Ethanol onset=early" is not an event handler.
 
 A problem list that is not empty fails the build.
 """
 
 from __future__ import annotations
 
+import hashlib
+import posixpath
 import re
+import xml.etree.ElementTree as ElementTree
 from dataclasses import dataclass, field
 from html.parser import HTMLParser
 from pathlib import Path
 from urllib.parse import unquote, urlsplit
 
-__all__ = ["SiteCheck", "verify_site"]
+__all__ = ["Findings", "SiteCheck", "read_findings", "svg_problems", "verify_site"]
 
 _RESOURCE_ATTRS = {
     "script": ("src",), "img": ("src", "srcset"), "source": ("src", "srcset"),
@@ -48,15 +54,6 @@ def _external(url: str) -> bool:
     parts = urlsplit(url.strip())
     return bool(parts.netloc) or parts.scheme not in ("", "data", "blob", "about",
                                                       "javascript", "mailto")
-
-
-def _local_target(root: Path, here: Path, url: str) -> Path | None:
-    parts = urlsplit(url.strip())
-    if parts.scheme or parts.netloc or not parts.path:
-        return None
-    path = unquote(parts.path)
-    target = (root / path.lstrip("/")) if path.startswith("/") else (here.parent / path)
-    return target.resolve()
 
 
 class _Page(HTMLParser):
@@ -100,54 +97,136 @@ def _css_urls(text: str) -> list[str]:
     return [m.group(2) or m.group(4) for m in _CSS_URL.finditer(text)]
 
 
-def verify_site(root: Path) -> SiteCheck:
-    """Check every HTML, CSS and SVG file under ``root``."""
+def _local_name(name: str) -> str:
+    """``{http://www.w3.org/2000/svg}script`` -> ``script`` (the same for attributes)."""
+    return name.rsplit("}", 1)[-1].lower()
+
+
+def svg_problems(text: str) -> list[str]:
+    """What is wrong with one SVG figure, read as XML (an empty list when nothing is)."""
+    try:
+        tree = ElementTree.fromstring(text)
+    except ElementTree.ParseError as error:
+        return [f"not well-formed XML ({error})"]
+    problems: list[str] = []
+    for element in tree.iter():
+        tag = _local_name(str(element.tag))
+        if tag in ("script", "foreignobject", "iframe", "embed", "object"):
+            problems.append(f"a <{tag}> element")
+        for name, value in element.attrib.items():
+            attribute = _local_name(name)
+            if attribute.startswith("on"):
+                problems.append(f"an event-handler attribute {attribute}= on <{tag}>")
+            elif attribute == "href" and _external(value):
+                problems.append(f"a reference to another host: {value}")
+            elif attribute == "style":
+                problems.extend(f"a style url() from another host: {url}"
+                                for url in _css_urls(value) if _external(url))
+        if tag == "style" and element.text:
+            problems.extend(f"a style url() from another host: {url}"
+                            for url in _css_urls(element.text) if _external(url))
+    return problems
+
+
+@dataclass(frozen=True)
+class Findings:
+    """What one file asks of the rest of the site, read from its bytes alone."""
+
+    resources: tuple[tuple[str, str], ...] = ()  # (what, url): must be local and exist
+    anchors: tuple[str, ...] = ()  # <a href>
+    problems: tuple[str, ...] = ()  # problems of the file itself (SVG)
+    html: bool = False
+
+
+def read_findings(suffix: str, data: bytes) -> Findings:
+    """Parse one HTML, CSS or SVG file (other files ask nothing)."""
+    if suffix == ".html":
+        page = _Page()
+        page.feed(data.decode("utf-8"))
+        resources = list(page.resources)
+        resources += [("style url()", url) for style in page.styles for url in _css_urls(style)]
+        return Findings(tuple(resources), tuple(page.anchors), html=True)
+    if suffix == ".css":
+        return Findings(tuple(("css url()", url) for url in _css_urls(data.decode("utf-8"))))
+    if suffix == ".svg":
+        return Findings(problems=tuple(f"SVG figure: {problem}"
+                                       for problem in svg_problems(data.decode("utf-8"))))
+    return Findings()
+
+
+def _target(here: str, url: str) -> str | None:
+    """The site-relative path a local URL points to ("" for the root, ".." outside)."""
+    parts = urlsplit(url.strip())
+    if parts.scheme or parts.netloc or not parts.path:
+        return None
+    path = unquote(parts.path)
+    joined = path.lstrip("/") if path.startswith("/") else posixpath.join(
+        posixpath.dirname(here), path)
+    normal = posixpath.normpath(joined) if joined else "."
+    return "" if normal == "." else normal
+
+
+def verify_site(root: Path, memo: dict[str, Findings] | None = None) -> SiteCheck:
+    """Check every HTML, CSS and SVG file under ``root``.
+
+    ``memo`` maps a hash of a file's bytes to what it was found to ask (kept by the
+    build between builds): an unchanged file is not parsed again; the checks of what
+    it asks always run against the site as it is now.
+    """
     root = root.resolve()
     check = SiteCheck()
+    files = sorted(p for p in root.rglob("*") if p.is_file())
+    present = {p.relative_to(root).as_posix() for p in files}
+    present |= {posixpath.dirname(name) for name in present}
+    folders = {f for name in present for f in _parents(name)}
+    present |= folders | {""}
 
-    def local(here: Path, what: str, url: str, must_exist: bool = True) -> None:
+    def local(here: str, what: str, url: str) -> None:
         if _external(url):
-            check.problems.append(f"{here.relative_to(root)}: {what} from another host: {url}")
+            check.problems.append(f"{here}: {what} from another host: {url}")
             return
-        target = _local_target(root, here, url)
+        target = _target(here, url)
         if target is None:
             return
-        if root not in target.parents and target != root:
-            check.problems.append(f"{here.relative_to(root)}: {what} outside the site: {url}")
-        elif must_exist and not target.exists():
-            check.problems.append(f"{here.relative_to(root)}: {what} not found: {url}")
+        if target == ".." or target.startswith("../"):
+            check.problems.append(f"{here}: {what} outside the site: {url}")
+        elif target not in present:
+            check.problems.append(f"{here}: {what} not found: {url}")
 
-    for path in sorted(root.rglob("*")):
-        if not path.is_file():
-            continue
+    seen: dict[str, Findings] = {}
+    for path in files:
+        here = path.relative_to(root).as_posix()
+        data = path.read_bytes()
         check.files += 1
-        check.size_bytes += path.stat().st_size
+        check.size_bytes += len(data)
         suffix = path.suffix.lower()
-        if suffix == ".html":
-            check.html_pages += 1
-            page = _Page()
-            page.feed(path.read_text(encoding="utf-8"))
-            for what, url in page.resources:
-                local(path, what, url)
-            for style in page.styles:
-                for url in _css_urls(style):
-                    local(path, "style url()", url)
-            for url in page.anchors:
-                if url.strip().lower().startswith("javascript:"):
-                    check.problems.append(f"{path.relative_to(root)}: script link: {url}")
-                elif _external(url):
-                    check.external_links += 1
-                elif urlsplit(url).path:
-                    local(path, "link", url)
-        elif suffix == ".css":
-            for url in _css_urls(path.read_text(encoding="utf-8")):
-                local(path, "css url()", url)
-        elif suffix == ".svg":
-            text = path.read_text(encoding="utf-8")
-            if re.search(r"<script|\son[a-z]+\s*=", text, re.IGNORECASE):
-                check.problems.append(f"{path.relative_to(root)}: script in an SVG figure")
-            for url in re.findall(r"""(?:xlink:)?href\s*=\s*["']([^"']+)""", text):
-                if _external(url):
-                    check.problems.append(f"{path.relative_to(root)}: reference to another "
-                                          f"host: {url}")
+        if suffix not in (".html", ".css", ".svg"):
+            continue
+        key = hashlib.sha256(suffix.encode() + b"\0" + data).hexdigest()
+        found = (memo or {}).get(key)
+        if found is None:
+            found = read_findings(suffix, data)
+        seen[key] = found
+        check.html_pages += found.html
+        check.problems.extend(f"{here}: {problem}" for problem in found.problems)
+        for what, url in found.resources:
+            local(here, what, url)
+        for url in found.anchors:
+            if url.strip().lower().startswith("javascript:"):
+                check.problems.append(f"{here}: script link: {url}")
+            elif _external(url):
+                check.external_links += 1
+            elif urlsplit(url).path:
+                local(here, "link", url)
+    if memo is not None:
+        memo.clear()
+        memo.update(seen)
     return check
+
+
+def _parents(name: str) -> list[str]:
+    out = []
+    while name:
+        name = posixpath.dirname(name)
+        out.append(name)
+    return out

@@ -1,0 +1,166 @@
+"""The build cache: per-pair and per-component work, keyed by a hash of all it depends on.
+
+A pair's computed results and figures depend on its catalogue file, its two
+components' files, the reference files those cite, the site settings and the
+code that computes and draws them.  :func:`pair_key` hashes exactly those
+(SHA-256 of the file bytes, the settings and :func:`code_version`); a stored
+entry is used only when the key matches, so an edited file, another setting
+or another version of the builder never reuses stale work.  A component's
+figure is keyed the same way by its own file.
+
+Entries are pickles under ``<cache>/work/<k[:2]>/<key>.pickle``, written to a
+temporary name and renamed, so a killed build leaves no half-written entry.
+The cache lives outside the published folder (by default ``.atlas-cache/``
+beside the output folder; git-ignored) and may be deleted at any time;
+``atlas build --no-cache`` ignores what it holds.
+"""
+
+from __future__ import annotations
+
+import functools
+import hashlib
+import os
+import pickle
+import re
+from dataclasses import asdict
+from pathlib import Path
+from typing import Any
+
+from builder.catalogue.loader import Catalogue
+from builder.site.settings import SiteSettings
+
+__all__ = ["BuildCache", "code_version", "component_key", "default_cache_dir", "pair_key"]
+
+#: The builder package (every ``.py`` under it is part of the code version).
+_PACKAGE = Path(__file__).resolve().parent.parent
+#: ``ref: some-id`` in a catalogue file: the references a file cites.
+_REF = re.compile(r"\bref:\s*['\"]?([a-z0-9]+(?:-[a-z0-9]+)*)")
+
+
+@functools.lru_cache(maxsize=1)
+def code_version() -> str:
+    """SHA-256 of the builder package's sources (paths and bytes), as hex."""
+    digest = hashlib.sha256()
+    for path in sorted(_PACKAGE.rglob("*.py")):
+        digest.update(path.relative_to(_PACKAGE).as_posix().encode())
+        digest.update(b"\0")
+        digest.update(path.read_bytes())
+        digest.update(b"\0")
+    return digest.hexdigest()
+
+
+def default_cache_dir(out_dir: Path) -> Path:
+    """``.atlas-cache/`` beside the output folder (never inside it)."""
+    return out_dir.resolve().parent / ".atlas-cache"
+
+
+def _settings_text(settings: SiteSettings) -> str:
+    data = asdict(settings)
+    data.pop("file", None)  # where the settings came from does not change any output
+    return repr(sorted(data.items()))
+
+
+def _file_bytes(path: Path) -> bytes:
+    try:
+        return path.read_bytes()
+    except OSError:
+        return b"(missing)"
+
+
+def _hash(parts: list[tuple[str, bytes]]) -> str:
+    digest = hashlib.sha256()
+    for name, data in parts:
+        digest.update(name.encode())
+        digest.update(b"\0")
+        digest.update(hashlib.sha256(data).digest())
+    return digest.hexdigest()
+
+
+def _with_references(catalogue: Catalogue, files: list[tuple[str, bytes]]
+                     ) -> list[tuple[str, bytes]]:
+    cited = sorted({ref for _name, data in files
+                    for ref in _REF.findall(data.decode("utf-8", "replace"))})
+    root = catalogue.root
+    return files + [(f"references/{ref}", _file_bytes(root / "references" / f"{ref}.yaml"))
+                    for ref in cited]
+
+
+def pair_key(catalogue: Catalogue, pair_id: str, settings: SiteSettings) -> str:
+    """The hash of everything a pair's results and figures depend on."""
+    pair = catalogue.pairs[pair_id]
+    root = catalogue.root
+    files = [(f"binaries/{pair_id}", _file_bytes(root / "binaries" / f"{pair_id}.yaml"))]
+    files += [(f"components/{cid}", _file_bytes(root / "components" / f"{cid}.yaml"))
+              for cid in (pair.component1, pair.component2)]
+    return _hash([("kind", b"pair"), ("code", code_version().encode()),
+                  ("settings", _settings_text(settings).encode()),
+                  *_with_references(catalogue, files)])
+
+
+def component_key(catalogue: Catalogue, component_id: str, settings: SiteSettings) -> str:
+    """The hash of everything a component's figure depends on."""
+    files = [(f"components/{component_id}",
+              _file_bytes(catalogue.root / "components" / f"{component_id}.yaml"))]
+    return _hash([("kind", b"component"), ("code", code_version().encode()),
+                  ("settings", _settings_text(settings).encode()),
+                  *_with_references(catalogue, files)])
+
+
+class BuildCache:
+    """Pickled work under ``root/work/``; ``enabled=False`` reads nothing (a cold build)
+    but still stores what it computes for the next build."""
+
+    def __init__(self, root: Path, *, read: bool = True) -> None:
+        self.root = root
+        self.read = read
+        self.hits = 0
+        self.misses = 0
+
+    def _path(self, key: str) -> Path:
+        return self.root / "work" / key[:2] / f"{key}.pickle"
+
+    def get(self, key: str) -> Any | None:
+        if not self.read:
+            self.misses += 1
+            return None
+        try:
+            with self._path(key).open("rb") as handle:
+                value = pickle.load(handle)
+        except (OSError, pickle.UnpicklingError, EOFError, AttributeError, ImportError):
+            self.misses += 1
+            return None
+        self.hits += 1
+        return value
+
+    def prune(self, keep: set[str]) -> int:
+        """Delete stored work whose key is not in ``keep`` (after a build of the whole
+        catalogue: what no current file needs); the number of entries deleted."""
+        removed = 0
+        for path in (self.root / "work").glob("*/*.pickle"):
+            if path.stem not in keep:
+                path.unlink(missing_ok=True)
+                removed += 1
+        return removed
+
+    def load_memo(self, name: str) -> dict[str, Any]:
+        """A dictionary kept between builds (e.g. the site check's parsed files)."""
+        try:
+            with (self.root / f"{name}.pickle").open("rb") as handle:
+                memo = pickle.load(handle)
+        except (OSError, pickle.UnpicklingError, EOFError, AttributeError, ImportError):
+            return {}
+        return memo if isinstance(memo, dict) and memo.get("\0code") == code_version() else {}
+
+    def save_memo(self, name: str, memo: dict[str, Any]) -> None:
+        memo["\0code"] = code_version()  # another version of the builder starts afresh
+        self._write(self.root / f"{name}.pickle", memo)
+
+    def put(self, key: str, value: Any) -> None:
+        self._write(self._path(key), value)
+
+    def _write(self, path: Path, value: Any) -> None:
+        path.parent.mkdir(parents=True, exist_ok=True)
+        temporary = path.with_name(f"{path.name}.{os.getpid()}.tmp")
+        with temporary.open("wb") as handle:
+            pickle.dump(value, handle, protocol=pickle.HIGHEST_PROTOCOL)
+        os.replace(temporary, path)
