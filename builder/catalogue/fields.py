@@ -450,7 +450,9 @@ PAIR = Block("pair", (
     Field("split", "block", block=SPLIT, required=False),
     Field("tags", "texts", required=False, help="keywords for the index"),
     Field("notes", "text", required=False, help="free text shown on the page"),
-), help="one binary pair")
+), one_of=(("activity",), ("vapour",)),
+   help="one binary pair: an activity block (γ–φ, virial vapour) or a vapour block "
+        "(peng-robinson)")
 
 #: The three kinds of catalogue file: folder name -> top-level block.
 BLOCKS: dict[str, Block] = {"references": REFERENCE, "components": COMPONENT,

@@ -791,9 +791,7 @@ def _load_pair(entry: _Entry, components: Mapping[str, Component],
     if cubic and model_block is not None:
         model_block.fail("", "no activity block (a peng-robinson pair takes both phases from "
                          "the equation of state)", "an activity block")
-    elif not cubic and model_block is None:
-        entry.fail("activity", "the liquid activity model (a mapping)",
-                   "nothing (the field is missing)")
+
     model: act.ActivityModel | None = None
     kind = ""
     T_min = T_max = math.nan
