@@ -23,6 +23,7 @@ from markupsafe import Markup
 
 from builder.site import TEMPLATES
 from builder.site.context import AtlasView, ComponentView, PairView
+from builder.site.datasheet import datasheet
 from builder.site.figures import Figure
 from builder.site.text import escape, fmt
 
@@ -80,7 +81,8 @@ def render_pages(view: AtlasView, figures: Mapping[str, Sequence[Figure]],
     render("methods.md.j2", "methods.md", **methods_context)
     render("catalogue.md.j2", "catalogue.md")
     for pair in view.pairs:
-        render("pair.md.j2", pair.url, p=pair, figures=_grouped(figures.get(pair.id, ())))
+        render("pair.md.j2", pair.url, p=pair, sheet=datasheet(pair),
+               figures=_grouped(figures.get(pair.id, ())))
     for component in view.components:
         render("component.md.j2", component.url, c=component,
                figure=component_figures.get(component.id), pairs_of=_pairs_of(view, component))
