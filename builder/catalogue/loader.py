@@ -24,6 +24,8 @@ from typing import Any, TypeVar
 
 import yaml
 
+from builder.catalogue.group_tables import DEFAULT_GROUPS, group_tables
+from builder.catalogue.groups import parse_groups
 from builder.catalogue.records import (
     PAIR_SEPARATOR,
     SLUG,
@@ -321,7 +323,8 @@ _CONSTANTS = {
 }
 
 
-def _load_component(entry: _Entry, references: Mapping[str, Reference]) -> Component | None:
+def _load_component(entry: _Entry, references: Mapping[str, Reference],
+                    groups_folder: Path = DEFAULT_GROUPS) -> Component | None:
     cid = entry.slug("id")
     name = entry.text("name")
     synonyms = entry.text_list("synonyms")
@@ -372,6 +375,13 @@ def _load_component(entry: _Entry, references: Mapping[str, Reference]) -> Compo
         uniquac_source = _source(uniquac, "source", references)
         uniquac.finish()
 
+    groups_block = entry.child("groups", None)
+    groups = None
+    if groups_block is not None:
+        groups = parse_groups(groups_block, lambda b: _source(b, "source", references),
+                              lambda v: group_tables(v, groups_folder), formula,
+                              values.get("molar_mass", math.nan))
+
     vp_block = entry.child("vapour_pressure")
     vapour_pressure = vp_source = None
     if vp_block is not None:
@@ -398,6 +408,7 @@ def _load_component(entry: _Entry, references: Mapping[str, Reference]) -> Compo
         vapour_pressure=vapour_pressure, vapour_pressure_source=vp_source,
         constants_sources=sources, hazard=hazard, hazard_source=hazard_source,
         uniquac_r=r, uniquac_q=q, uniquac_source=uniquac_source, file=entry.file,
+        groups=groups,
     )
 
 
@@ -746,7 +757,8 @@ def load_catalogue(root: Path | str = DEFAULT_CATALOGUE, only: Iterable[str] = (
         return out
 
     references = load_all("references", _load_reference)
-    components = load_all("components", lambda e: _load_component(e, references))
+    groups_folder = root / "groups" if (root / "groups").is_dir() else DEFAULT_GROUPS
+    components = load_all("components", lambda e: _load_component(e, references, groups_folder))
     broken = {p.stem for p in _files(root / "components")} - set(components)
     wanted = set(only)
     pairs = load_all("binaries", lambda e: _load_pair(e, components, references, broken))

@@ -17,6 +17,7 @@ from builder.thermo.vapour_pressure import VapourPressure
 __all__ = [
     "SLUG",
     "Component",
+    "ComponentGroups",
     "PairRecord",
     "RecordedAzeotrope",
     "RecordedBehaviour",
@@ -88,6 +89,26 @@ class Source:
 
 
 @dataclass(frozen=True)
+class ComponentGroups:
+    """A component's UNIFAC subgroups: name -> count, per model variant.
+
+    ``unifac`` uses the subgroups of original UNIFAC, ``dortmund`` those of modified
+    UNIFAC (Dortmund); either is ``None`` where the published tables have no groups
+    for the substance.  Names are spelled as in the group tables (``pairs/groups/``).
+    """
+
+    unifac: dict[str, int] | None
+    dortmund: dict[str, int] | None
+    source: Source
+
+    def of(self, variant: str) -> dict[str, int] | None:
+        """The subgroups of one variant: ``"unifac"`` or ``"dortmund"``."""
+        if variant not in ("unifac", "dortmund"):
+            raise ValueError(f"unknown UNIFAC variant {variant!r}; expected unifac or dortmund")
+        return self.unifac if variant == "unifac" else self.dortmund
+
+
+@dataclass(frozen=True)
 class Component:
     """A pure component with its constants (SI) and vapour-pressure correlation."""
 
@@ -111,6 +132,8 @@ class Component:
     uniquac_q: float | None = None
     uniquac_source: Source | None = None
     file: str = ""
+    #: UNIFAC subgroup counts for the predictive models (None: not assigned yet).
+    groups: ComponentGroups | None = None
 
     def names(self) -> tuple[str, ...]:
         """Every spelling a user may type for this component."""
