@@ -24,6 +24,7 @@ from builder.site.context import AtlasView, build_views
 from builder.site.data import atlas_json, condition_csvs, pair_json, plain
 from builder.site.figures import Figure, component_figure, pair_figures
 from builder.site.pages import render_pages
+from builder.site.partners import partner_rows
 from builder.site.settings import SiteSettings
 from builder.site.text import UnsafeName
 
@@ -119,7 +120,8 @@ def generate(settings: SiteSettings, catalogue: Catalogue, atlas: Mapping[str, P
     for fig in comp_figs.values():
         content.add(fig.path, fig.svg)
     content.add("atlas.json", atlas_json(view, catalogue, atlas, pair_data))
-    pages = render_pages(view, pair_figs, comp_figs, {})
+    pages = render_pages(view, pair_figs, comp_figs, {},
+                         partners=partner_rows(view, catalogue, atlas))
     for path, text in pages.items():
         content.add(path, text)
     return view, content

@@ -22,9 +22,11 @@ import jinja2
 from markupsafe import Markup
 
 from builder.site import TEMPLATES
-from builder.site.context import AtlasView, ComponentView, PairView
+from builder.site.context import BEHAVIOURS, AtlasView, ComponentView, Display, PairView
 from builder.site.datasheet import datasheet
 from builder.site.figures import Figure
+from builder.site.matrix import behaviour_matrix, family_starts
+from builder.site.partners import NO_PAGE, PartnerRow, Partners
 from builder.site.text import escape, fmt
 
 __all__ = ["environment", "page_url", "render_pages"]
@@ -66,10 +68,15 @@ def _relative(here: str) -> Any:
 
 
 def render_pages(view: AtlasView, figures: Mapping[str, Sequence[Figure]],
-                 component_figures: Mapping[str, Figure], methods_context: Mapping[str, Any]
-                 ) -> dict[str, str]:
-    """Every page: ``{site-relative .md path: Markdown text}``."""
+                 component_figures: Mapping[str, Figure], methods_context: Mapping[str, Any],
+                 partners: Partners | None = None) -> dict[str, str]:
+    """Every page: ``{site-relative .md path: Markdown text}``.
+
+    ``partners`` (:func:`.partners.partner_rows`) adds each component's partner table
+    and the behaviour matrix page.
+    """
     env = environment()
+    at = Display(view.settings).P(view.settings.summary_pressure_Pa, 6)
     pages: dict[str, str] = {}
 
     def render(template: str, path: str, **context: Any) -> None:
@@ -84,9 +91,20 @@ def render_pages(view: AtlasView, figures: Mapping[str, Sequence[Figure]],
         render("pair.md.j2", pair.url, p=pair, sheet=datasheet(pair),
                figures=_grouped(figures.get(pair.id, ())))
     for component in view.components:
+        rows = (partners or {}).get(component.id, ())
         render("component.md.j2", component.url, c=component,
-               figure=component_figures.get(component.id), pairs_of=_pairs_of(view, component))
+               figure=component_figures.get(component.id), pairs_of=_pairs_of(view, component),
+               partners=rows, at=at, partner_behaviours=_behaviours(rows))
+    if partners is not None:
+        mx = behaviour_matrix(view, partners)
+        render("matrix.md.j2", "matrix.md", mx=mx, at=at, starts=family_starts(mx.groups))
     return pages
+
+
+def _behaviours(rows: Sequence[PartnerRow]) -> list[tuple[str, str]]:
+    keys = {r.behaviour for r in rows}
+    out = [(k, v) for k, v in BEHAVIOURS.items() if k in keys]
+    return out + ([(NO_PAGE, "no page")] if NO_PAGE in keys else [])
 
 
 def _grouped(figures: Sequence[Figure]) -> dict[str, Any]:
