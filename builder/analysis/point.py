@@ -17,7 +17,7 @@ import numpy as np
 from numpy.typing import ArrayLike
 
 from builder.catalogue.loader import Catalogue
-from builder.catalogue.lookup import find_pair
+from builder.catalogue.lookup import find_pair_or_prediction
 from builder.catalogue.records import Component, PairRecord
 from builder.thermo import equilibrium as eq
 
@@ -109,6 +109,7 @@ class PointAnswer:
             "pair": self.pair.id,
             "components": [c.id for c in self.components],
             "model": self.pair.model.name,
+            "quality": self.pair.quality,
             "T_K": self.T_K,
             "P_Pa": self.P_Pa,
             "x": list(self.x),
@@ -130,17 +131,19 @@ def _mass_pair(x1: float, M: list[float]) -> list[float]:
 
 def solve_point(catalogue: Catalogue, first: str, second: str, kind: str, *,
                 composition: float, T_K: float | None = None, P_Pa: float | None = None,
-                mass: bool = False) -> PointAnswer:
+                mass: bool = False, model: str = "auto") -> PointAnswer:
     """Solve one bubble or dew point; ``composition`` is of the first named component.
 
     For ``bubble-*`` it is the liquid, for ``dew-*`` the vapour; a mass
     fraction when ``mass`` is true.  ``T_K`` goes with ``*-p``, ``P_Pa`` with ``*-t``.
+    ``model``: ``"auto"`` (the fitted set, else a prediction), ``"fitted"``, ``"unifac"``
+    or ``"dortmund"`` (:func:`builder.catalogue.lookup.find_pair_or_prediction`).
     """
     if kind not in POINT_KINDS:
         raise ValueError(f"unknown calculation {kind!r}; use one of {', '.join(POINT_KINDS)}")
     if not (0.0 <= composition <= 1.0):
         raise ValueError(f"composition must be a fraction in [0, 1]; found {composition}")
-    pair, swapped, c1, c2 = find_pair(catalogue, first, second)
+    pair, swapped, c1, c2 = find_pair_or_prediction(catalogue, first, second, model)
     system = system_for(pair, catalogue, swapped)
     z = mass_to_mole(composition, c1.molar_mass_kg_per_mol, c2.molar_mass_kg_per_mol) \
         if mass else composition

@@ -23,6 +23,7 @@ Thermodynamics of Fluid-Phase Equilibria, 3rd ed., 1999, chapter 6.
 from __future__ import annotations
 
 import itertools
+from collections.abc import Callable
 from dataclasses import dataclass
 
 import numpy as np
@@ -125,10 +126,11 @@ def stable(model: ActivityModel, x1: ArrayLike, T_K: ArrayLike) -> NDArray[np.bo
 def _hull_gap(x: FloatArray, g: FloatArray) -> tuple[float, float] | None:
     """The widest edge of the lower convex hull of (x, g) that skips grid points."""
     hull: list[int] = []
-    for i in range(x.size):
+    xs, gs = x.tolist(), g.tolist()  # plain floats: the loop runs in the interpreter
+    for i in range(len(xs)):
         while len(hull) >= 2:
             a, b = hull[-2], hull[-1]
-            cross = (x[b] - x[a]) * (g[i] - g[a]) - (g[b] - g[a]) * (x[i] - x[a])
+            cross = (xs[b] - xs[a]) * (gs[i] - gs[a]) - (gs[b] - gs[a]) * (xs[i] - xs[a])
             if cross <= 0:
                 hull.pop()
             else:
@@ -137,9 +139,9 @@ def _hull_gap(x: FloatArray, g: FloatArray) -> tuple[float, float] | None:
     best: tuple[float, float] | None = None
     width = 0.0
     for a, b in itertools.pairwise(hull):
-        if b - a > 1 and x[b] - x[a] > width:
-            width = x[b] - x[a]
-            best = (float(x[a]), float(x[b]))
+        if b - a > 1 and xs[b] - xs[a] > width:
+            width = xs[b] - xs[a]
+            best = (xs[a], xs[b])
     return best
 
 
@@ -199,8 +201,9 @@ def three_phase_isobar(system: eq.BinarySystem, P_Pa: float, T_guess_K: float
 
     ``T_guess_K`` is a temperature near the expected three-phase line (the
     homogeneous bubble temperature of an unstable liquid).  The search scans
-    ±40 K around it for a sign change of ``ln P_bubble(binodal(T)) - ln P``
-    and refines it with Brent's method.
+    ±40 K around it for a sign change of ``ln P_bubble(binodal(T)) - ln P``,
+    then up to 200 K above it (nearly immiscible liquids), and refines it with
+    Brent's method.
     """
     def mismatch(T: float) -> float:
         split = binodal(system.activity, T)
@@ -213,11 +216,26 @@ def three_phase_isobar(system: eq.BinarySystem, P_Pa: float, T_guess_K: float
     for i in range(values.size - 1):
         a, b = values[i], values[i + 1]
         if np.isfinite(a) and np.isfinite(b) and a * b <= 0:
-            T3 = brentq(mismatch, temperatures[i], temperatures[i + 1], xtol=1e-10)
-            split = binodal(system.activity, T3)
-            if split is None:
-                return None
-            bubble = _split_bubble(system, split)
-            return ThreePhase(T_K=float(T3), P_Pa=P_Pa, x1_a=split.x1_a, x1_b=split.x1_b,
-                              y1=float(bubble.y1[0]))
+            return _three_phase_at(system, P_Pa, mismatch, temperatures[i], temperatures[i + 1])
+    # Nearly immiscible liquids (hydrocarbons or chlorinated solvents with water) have
+    # metastable one-liquid bubble temperatures far below the three-phase line: go on
+    # upwards until the binodal liquids boil at P.
+    previous_T, previous = float(temperatures[-1]), float(values[-1])
+    for T in T_guess_K + np.arange(45.0, 205.0, 5.0):
+        value = mismatch(float(T))
+        if np.isfinite(previous) and np.isfinite(value) and previous * value <= 0:
+            return _three_phase_at(system, P_Pa, mismatch, previous_T, float(T))
+        previous_T, previous = float(T), value
     return None
+
+
+def _three_phase_at(system: eq.BinarySystem, P_Pa: float, mismatch: Callable[[float], float],
+                    T_low: float, T_high: float) -> ThreePhase | None:
+    """Refine a bracketed three-phase temperature with Brent's method."""
+    T3 = brentq(mismatch, T_low, T_high, xtol=1e-10)
+    split = binodal(system.activity, T3)
+    if split is None:
+        return None
+    bubble = _split_bubble(system, split)
+    return ThreePhase(T_K=float(T3), P_Pa=P_Pa, x1_a=split.x1_a, x1_b=split.x1_b,
+                      y1=float(bubble.y1[0]))

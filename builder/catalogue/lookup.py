@@ -6,10 +6,12 @@ import difflib
 import re
 
 from builder.catalogue.loader import Catalogue
+from builder.catalogue.predictive import predicted_pair
 from builder.catalogue.records import Component, PairRecord
-from builder.errors import LookupFailure
+from builder.errors import AtlasError, LookupFailure
 
-__all__ = ["find_component", "find_pair", "normalise"]
+__all__ = ["MODEL_CHOICES", "find_component", "find_pair", "find_pair_or_prediction",
+           "normalise"]
 
 
 def normalise(text: str) -> str:
@@ -74,3 +76,32 @@ def find_pair(catalogue: Catalogue, first: str, second: str
         raise LookupFailure("catalogued pair", f"{c1.id} + {c2.id}", hint)
     record, swapped = found
     return record, swapped, c1, c2
+
+
+#: What ``--model`` may ask for: the fitted set, a UNIFAC variant, or either (fitted first).
+MODEL_CHOICES = ("auto", "fitted", "unifac", "dortmund")
+
+
+def find_pair_or_prediction(catalogue: Catalogue, first: str, second: str, model: str = "auto"
+                            ) -> tuple[PairRecord, bool, Component, Component]:
+    """Like :func:`find_pair`, but any two catalogued components have an answer.
+
+    ``model`` ``"auto"``: the fitted set if there is one, else the default prediction
+    (modified UNIFAC (Dortmund), or original UNIFAC where Dortmund cannot predict);
+    ``"fitted"``: the fitted set or an error; ``"unifac"``/``"dortmund"``: that
+    prediction.  A prediction is built in the user's order (never swapped).
+    """
+    if model not in MODEL_CHOICES:
+        raise ValueError(f"unknown model {model!r}; use one of {', '.join(MODEL_CHOICES)}")
+    c1 = find_component(catalogue, first)
+    c2 = find_component(catalogue, second)
+    if c1.id == c2.id:
+        raise LookupFailure("pair", f"{first} + {second}", ["two different components"])
+    found = catalogue.pair_of(c1.id, c2.id)
+    if model in ("auto", "fitted") and found is not None:
+        record, swapped = found
+        return record, swapped, c1, c2
+    if model == "fitted":
+        raise AtlasError(f"no fitted parameter set for {c1.id} + {c2.id} in the catalogue; "
+                         "--model dortmund or --model unifac gives a prediction")
+    return predicted_pair(c1, c2, None if model == "auto" else model), False, c1, c2

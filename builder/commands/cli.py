@@ -19,6 +19,7 @@ from typing import Any
 
 from builder.analysis import point
 from builder.catalogue.loader import DEFAULT_CATALOGUE, Catalogue, load_catalogue
+from builder.catalogue.lookup import MODEL_CHOICES
 from builder.commands import report
 from builder.commands import site as site_commands
 from builder.errors import AtlasError
@@ -64,8 +65,10 @@ def _parser() -> argparse.ArgumentParser:
                         help="catalogue folder (default: the shipped pairs/)")
     commands = parser.add_subparsers(dest="command", required=True, metavar="COMMAND")
 
-    calc = commands.add_parser("calc", help="bubble or dew point of a catalogued pair",
-                               description="Bubble or dew point of a catalogued pair. "
+    calc = commands.add_parser("calc", help="bubble or dew point of any two components",
+                               description="Bubble or dew point of any two catalogued "
+                               "components: the fitted set where the catalogue has one, "
+                               "otherwise a UNIFAC prediction (said so in the output). "
                                "Compositions refer to the first named component.")
     calc.add_argument("kind", choices=[*point.POINT_KINDS, *report.ANALYSES],
                       help="bubble-t / dew-t at a pressure, bubble-p / dew-p at a "
@@ -88,6 +91,10 @@ def _parser() -> argparse.ArgumentParser:
                       "correlations' ranges)")
     calc.add_argument("--mass", action="store_true",
                       help="the fraction given is a mass fraction (default: mole fraction)")
+    calc.add_argument("--model", choices=MODEL_CHOICES, default="auto",
+                      help="auto (default): the fitted set, else modified UNIFAC (Dortmund) or "
+                      "original UNIFAC; fitted: the fitted set only; unifac, dortmund: that "
+                      "prediction")
     calc.add_argument("--json", action="store_true", help="print one JSON object")
 
     check = commands.add_parser(
@@ -123,7 +130,8 @@ def _calc(args: argparse.Namespace, catalogue: Catalogue) -> int:
         raise AtlasError(f"{args.kind} needs a pressure: --P (for example --P 1atm)")
     answer = point.solve_point(catalogue, args.first, args.second, args.kind,
                                composition=composition, T_K=args.T if at_T else None,
-                               P_Pa=None if at_T else args.P, mass=args.mass)
+                               P_Pa=None if at_T else args.P, mass=args.mass,
+                               model=args.model)
     if args.json:
         print(json.dumps(answer.to_json(), indent=2))
     else:
@@ -140,6 +148,8 @@ def _point_table(answer: point.PointAnswer, show_mass: bool = False) -> str:
     lines = [
         f"{point.POINT_KINDS[answer.kind]} of {c1.name} (1) + {c2.name} (2) at {condition}",
         f"model: {answer.pair.model.name} (parameter quality: {answer.pair.quality})",
+        *([f"predicted: no fitted set is used; {answer.pair.model.name} estimates this pair "
+           "from group contributions"] if answer.pair.quality == "predicted" else []),
         "",
         f"  {'T':<26}{format_temperature(answer.T_K)}",
         f"  {'P':<26}{format_pressure(answer.P_Pa)}",

@@ -16,7 +16,7 @@ from builder.analysis.point import system_for
 from builder.analysis.results import ConditionResult, compute_condition, swapped_pair
 from builder.analysis.trace import trace_azeotrope
 from builder.catalogue.loader import Catalogue
-from builder.catalogue.lookup import find_pair
+from builder.catalogue.lookup import find_pair_or_prediction
 from builder.catalogue.records import PairRecord
 from builder.errors import AtlasError
 from builder.thermo.units import format_pressure, format_temperature
@@ -94,12 +94,14 @@ def run(args: argparse.Namespace, catalogue: Catalogue) -> int:
         if not (min(D, B) < F < max(D, B)):
             raise AtlasError("the feed must lie between the bottoms and the distillate")
         split = (D, B, F)
-    pair, swapped, c1, c2 = find_pair(catalogue, args.first, args.second)
+    pair, swapped, c1, c2 = find_pair_or_prediction(catalogue, args.first, args.second,
+                                                    getattr(args, "model", "auto"))
     kind = "isobar" if args.P is not None else "isotherm"
     result = compute_condition(catalogue, pair, kind, args.P if args.P is not None else args.T,
                                swapped=swapped, split_x1=split)
     data = {"analysis": args.kind, "pair": pair.id, "components": [c1.id, c2.id],
-            "model": pair.model.name, **condition_json(result, args.kind)}
+            "model": pair.model.name, "quality": pair.quality,
+            **condition_json(result, args.kind)}
     if getattr(args, "trace", False):
         if args.kind != "azeotrope" or kind != "isobar":
             raise AtlasError("--trace goes with azeotrope at a pressure (--P)")
@@ -138,6 +140,9 @@ def _text(what: str, data: dict[str, Any], name1: str, name2: str) -> str:
           else format_temperature(data["T_K"]))
     lines = [f"{what.capitalize()} of {name1} (1) + {name2} (2) at {at} "
              f"(model: {data['model']})", ""]
+    if data.get("quality") == "predicted":
+        lines[1:1] = [f"predicted: no fitted set is used; {data['model']} estimates this pair "
+                      "from group contributions"]
     if what == "azeotrope":
         if not data["azeotropes"]:
             lines.append("No azeotrope: the whole composition range was searched." if

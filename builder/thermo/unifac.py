@@ -91,47 +91,73 @@ def unifac_ln_gamma(x1: ArrayLike, T_K: ArrayLike, nu: ArrayLike, R: ArrayLike, 
     >>> [round(float(v), 6) for v in unifac_ln_gamma(0.3, 340.0, nu, R, Q, a, z, z, False)]
     [0.506051, 0.203032]
     """
-    x1_b, T_b = np.broadcast_arrays(np.asarray(x1, dtype=float), np.asarray(T_K, dtype=float))
-    shape = x1_b.shape
-    x = np.stack([x1_b.ravel(), 1.0 - x1_b.ravel()], axis=1)          # (N, 2)
-    T = T_b.ravel()[:, None, None]                                     # (N, 1, 1)
-    nu_a = np.asarray(nu, dtype=float)                                 # (2, k)
-    R_a, Q_a = np.asarray(R, dtype=float), np.asarray(Q, dtype=float)  # (k,)
-    a_a, b_a, c_a = (np.asarray(v, dtype=float) for v in (a, b, c))    # (k, k)
+    return _Prepared.of(nu, R, Q, a, b, c, dortmund).ln_gamma(x1, T_K)
 
-    # Combinatorial part.
-    r, q = nu_a @ R_a, nu_a @ Q_a                                      # (2,)
-    V = r / (x @ r)[:, None]
-    F = q / (x @ q)[:, None]
-    if dortmund:
-        r34 = r**0.75
-        Vp = r34 / (x @ r34)[:, None]
-    else:
-        Vp = V
-    ln_c = 1.0 - Vp + np.log(Vp) - HALF_Z * q * (1.0 - V / F + np.log(V / F))
 
-    # Residual part.
-    psi = np.exp(-(a_a + b_a * T + c_a * T**2) / T)                   # (N, k, k)
+@dataclass(frozen=True, eq=False)
+class _Prepared:
+    """The composition- and temperature-independent parts of :func:`unifac_ln_gamma`.
 
-    def ln_Gamma(X: FloatArray) -> FloatArray:
-        """ln Γ_k for group mole fractions X (N, k)."""
-        theta = Q_a * X
-        theta = theta / theta.sum(axis=1, keepdims=True)
-        S = np.einsum("nm,nmk->nk", theta, psi)                        # Σ_m Θ_m Ψ_mk
-        inner = np.einsum("nm,nkm->nk", theta / S, psi)                # Σ_m Θ_m Ψ_km / S_m
-        return Q_a * (1.0 - np.log(S) - inner)
+    Computed once per model, so that one evaluation is a handful of array operations
+    (the solvers call it thousands of times with small arrays).
+    """
 
-    groups = x @ nu_a                                                  # (N, k)
-    ln_mix = ln_Gamma(groups / groups.sum(axis=1, keepdims=True))
-    ln_r = []
-    for i in range(2):
-        pure = np.broadcast_to(nu_a[i] / nu_a[i].sum(), ln_mix.shape)
-        ln_pure = ln_Gamma(pure)
-        present = nu_a[i] > 0
-        ln_r.append(((ln_mix - ln_pure)[:, present] * nu_a[i][present]).sum(axis=1))
-    ln_g1 = (ln_c[:, 0] + ln_r[0]).reshape(shape)
-    ln_g2 = (ln_c[:, 1] + ln_r[1]).reshape(shape)
-    return ln_g1, ln_g2
+    r: FloatArray            # (2,) ri
+    q: FloatArray            # (2,) qi
+    r34: FloatArray          # (2,) ri^(3/4) (Dortmund) or ri (original)
+    nuQ: FloatArray          # (2, k) ν_k^(i) Q_k
+    theta_pure: FloatArray   # (2, k) Θ_k in pure i
+    nu: FloatArray           # (2, k)
+    Q: FloatArray            # (k,)
+    a: FloatArray            # (k, k)
+    b: FloatArray | None     # (k, k), None when zero
+    c: FloatArray | None
+
+    @classmethod
+    def of(cls, nu: ArrayLike, R: ArrayLike, Q: ArrayLike, a: ArrayLike, b: ArrayLike,
+           c: ArrayLike, dortmund: bool) -> _Prepared:
+        nu_a = np.asarray(nu, dtype=float)
+        R_a, Q_a = np.asarray(R, dtype=float), np.asarray(Q, dtype=float)
+        b_a, c_a = np.asarray(b, dtype=float), np.asarray(c, dtype=float)
+        r, q = nu_a @ R_a, nu_a @ Q_a
+        nuQ = nu_a * Q_a
+        return cls(r=r, q=q, r34=r**0.75 if dortmund else r, nuQ=nuQ,
+                   theta_pure=nuQ / nuQ.sum(axis=1, keepdims=True), nu=nu_a, Q=Q_a,
+                   a=np.asarray(a, dtype=float), b=b_a if b_a.any() else None,
+                   c=c_a if c_a.any() else None)
+
+    def ln_gamma(self, x1: ArrayLike, T_K: ArrayLike) -> LnGamma:
+        x1_b, T_b = np.asarray(x1, dtype=float), np.asarray(T_K, dtype=float)
+        if x1_b.shape != T_b.shape:
+            x1_b, T_b = np.broadcast_arrays(x1_b, T_b)
+        shape = x1_b.shape
+        x1v = x1_b.reshape(-1, 1)                                       # (N, 1)
+        x2v = 1.0 - x1v
+        # Combinatorial part (columns: component 1, component 2).
+        V = self.r / (x1v * self.r[0] + x2v * self.r[1])                # (N, 2)
+        F = self.q / (x1v * self.q[0] + x2v * self.q[1])
+        Vp = self.r34 / (x1v * self.r34[0] + x2v * self.r34[1])
+        V_F = V / F
+        ln_c = 1.0 - Vp + np.log(Vp) - HALF_Z * self.q * (1.0 - V_F + np.log(V_F))
+        # Residual part: Θ in the mixture and in each pure component, stacked (3, N, k).
+        T = T_b.reshape(-1, 1, 1)
+        exponent = self.a / T
+        if self.b is not None:
+            exponent = exponent + self.b
+        if self.c is not None:
+            exponent = exponent + self.c * T
+        psi = np.exp(-exponent)                                         # (N, k, k)
+        mix = x1v * self.nuQ[0] + x2v * self.nuQ[1]
+        theta = np.empty((3, *mix.shape))
+        theta[0] = mix / mix.sum(axis=1, keepdims=True)
+        theta[1:] = self.theta_pure[:, None, :]
+        S = np.matmul(theta[:, :, None, :], psi)[:, :, 0, :]           # Σ_m Θ_m Ψ_mk
+        inner = np.matmul(psi, (theta / S)[..., None])[..., 0]          # Σ_m Θ_m Ψ_km / S_m
+        ln_Gamma = self.Q * (1.0 - np.log(S) - inner)                   # (3, N, k)
+        # ln Γ_k^(i) of groups absent from i is multiplied by ν = 0 (finite: Ψ > 0).
+        ln_r1 = (ln_Gamma[0] - ln_Gamma[1]) @ self.nu[0]
+        ln_r2 = (ln_Gamma[0] - ln_Gamma[2]) @ self.nu[1]
+        return ((ln_c[:, 0] + ln_r1).reshape(shape), (ln_c[:, 1] + ln_r2).reshape(shape))
 
 
 @dataclass(frozen=True, eq=False)
@@ -152,14 +178,19 @@ class UNIFAC:
     b: FloatArray           # (k, k) [-]
     c: FloatArray           # (k, k) [1/K]
     main_group_pairs: tuple[str, ...] = field(default=())
+    _prepared: _Prepared = field(init=False, repr=False)
+
+    def __post_init__(self) -> None:
+        object.__setattr__(self, "_prepared", _Prepared.of(
+            self.nu, self.R, self.Q, self.a, self.b, self.c, self.variant == "dortmund"))
 
     @property
     def name(self) -> str:
         return VARIANT_NAMES[self.variant]
 
     def ln_gamma(self, x1: ArrayLike, T_K: ArrayLike) -> LnGamma:
-        return unifac_ln_gamma(x1, T_K, self.nu, self.R, self.Q, self.a, self.b, self.c,
-                               self.variant == "dortmund")
+        """``(ln γ1, ln γ2)``; ``x1`` and ``T_K`` [K] broadcast (see :func:`unifac_ln_gamma`)."""
+        return self._prepared.ln_gamma(x1, T_K)
 
     def parameters_text(self) -> dict[str, str]:
         def groups(i: int) -> str:

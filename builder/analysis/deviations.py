@@ -1,0 +1,164 @@
+"""Predicted azeotropes at 101.325 kPa against a published azeotrope table.
+
+For every combination in ``pairs/recorded-azeotropes.yaml`` the default prediction
+(modified UNIFAC (Dortmund), or original UNIFAC where Dortmund cannot predict) is
+analysed on the 101.325 kPa isobar, and its behaviour class, azeotrope temperature and
+composition are compared with the recorded ones at the screening tolerance: class
+right, temperature within 3 K, composition within 0.08 in mole fraction (common
+practice for screening).  UNIFAC is an estimate: a miss is reported, never tuned away.
+:func:`markdown` renders the table committed as ``docs/unifac-deviations.md``.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+
+from builder.analysis import curves
+from builder.analysis.point import system_for
+from builder.analysis.trace import analyse
+from builder.catalogue.loader import Catalogue
+from builder.catalogue.predictive import CannotPredict, predicted_pair
+from builder.catalogue.recorded_table import RecordedCombination
+
+__all__ = ["ATMOSPHERIC_PA", "T_TOLERANCE_K", "X_TOLERANCE", "Deviation", "deviations",
+           "markdown"]
+
+ATMOSPHERIC_PA = 101325.0
+T_TOLERANCE_K = 3.0
+X_TOLERANCE = 0.08
+
+
+@dataclass(frozen=True)
+class Deviation:
+    """One combination: recorded against predicted, and the verdict."""
+
+    recorded: RecordedCombination
+    model: str
+    predicted_class: str
+    T_K: float | None
+    x1: float | None
+    reason: str = ""  # why no prediction could be made
+
+    @property
+    def class_right(self) -> bool:
+        wanted = self.recorded.behaviour_class
+        if self.recorded.heterogeneous is None and wanted == "minimum-boiling":
+            return self.predicted_class in ("minimum-boiling", "heterogeneous")
+        return self.predicted_class == wanted
+
+    @property
+    def dT_K(self) -> float | None:
+        if self.T_K is None or self.recorded.T_K is None:
+            return None
+        return self.T_K - self.recorded.T_K
+
+    @property
+    def dx1(self) -> float | None:
+        if self.x1 is None or self.recorded.x1 is None:
+            return None
+        return self.x1 - self.recorded.x1
+
+    @property
+    def within_tolerance(self) -> bool:
+        if self.reason or not self.class_right:
+            return False
+        dT, dx = self.dT_K, self.dx1
+        return (dT is None or abs(dT) <= T_TOLERANCE_K) and (dx is None or abs(dx) <= X_TOLERANCE)
+
+    def verdict(self) -> str:
+        if self.reason:
+            return "not predicted: " + self.reason
+        if not self.class_right:
+            return (f"wrong class: predicted {self.predicted_class}, recorded "
+                    f"{self.recorded.behaviour_class}")
+        misses = []
+        if self.dT_K is not None and abs(self.dT_K) > T_TOLERANCE_K:
+            misses.append(f"T off by {self.dT_K:+.1f} K")
+        if self.dx1 is not None and abs(self.dx1) > X_TOLERANCE:
+            misses.append(f"x1 off by {self.dx1:+.3f}")
+        return "outside tolerance: " + ", ".join(misses) if misses else "agrees"
+
+
+def _predict(catalogue: Catalogue, recorded: RecordedCombination) -> Deviation:
+    c1 = catalogue.components[recorded.component1]
+    c2 = catalogue.components[recorded.component2]
+    try:
+        record = predicted_pair(c1, c2)
+    except CannotPredict as error:
+        return Deviation(recorded, "", "", None, None, reason="; ".join(error.reasons))
+    system = system_for(record, catalogue)
+    curve = curves.isobar(system, ATMOSPHERIC_PA)
+    phases = analyse(system, record.model, True, ATMOSPHERIC_PA, curve)
+    azeotropes = sorted(phases.azeotropes, key=lambda a: (not a.heterogeneous, a.x1))
+    if not azeotropes:
+        return Deviation(recorded, record.model.name, "zeotropic", None, None)
+    first = azeotropes[0]
+    kind = "heterogeneous" if first.heterogeneous else first.kind
+    return Deviation(recorded, record.model.name, kind, first.T_K, first.x1)
+
+
+def deviations(catalogue: Catalogue, recorded: list[RecordedCombination]) -> list[Deviation]:
+    """Predict and compare every recorded combination, in the file's order."""
+    return [_predict(catalogue, item) for item in recorded]
+
+
+def _T(value: float | None) -> str:
+    return "–" if value is None else f"{value - 273.15:.1f}"
+
+
+def _x(value: float | None) -> str:
+    return "–" if value is None else f"{value:.3f}"
+
+
+def _signed(value: float | None, digits: int) -> str:
+    return "–" if value is None else f"{value:+.{digits}f}"
+
+
+def markdown(catalogue: Catalogue, rows: list[Deviation]) -> str:
+    """The deviation table as a Markdown page (generated; do not edit by hand)."""
+    agree = sum(r.within_tolerance for r in rows)
+    classes = sum(r.class_right and not r.reason for r in rows)
+    sources = sorted({r.recorded.source.text(catalogue.references) for r in rows})
+    lines = [
+        "# UNIFAC predictions against a published azeotrope table",
+        "",
+        "Generated by `python -m builder.commands.deviations docs/unifac-deviations.md` "
+        "from `pairs/recorded-azeotropes.yaml`; a test fails when it is out of date.",
+        "",
+        "Each combination of catalogued components below has no fitted parameter set, so "
+        "the atlas predicts it with modified UNIFAC (Dortmund), or original UNIFAC where "
+        "Dortmund lacks groups or parameters. The prediction at 101.325 kPa is compared "
+        "with what a published azeotrope table records, at the screening tolerance: "
+        f"behaviour class right, azeotrope temperature within {T_TOLERANCE_K:g} K, "
+        f"composition within {X_TOLERANCE:g} in mole fraction of the first component.",
+        "",
+        "UNIFAC is an estimate. Where it is wrong, this table says so; no parameter is ever "
+        "adjusted to pass. A screening result is not a design basis: design rests on "
+        "measured data, local codes and licensed engineering practice.",
+        "",
+        f"**{agree} of {len(rows)}** combinations agree within the tolerance; the behaviour "
+        f"class is right for **{classes} of {len(rows)}**.",
+        "",
+        "Classes: zeotropic (no azeotrope), minimum-boiling, maximum-boiling, heterogeneous "
+        "(a minimum-boiling azeotrope with two liquids). A recorded minimum-boiling "
+        "azeotrope whose table does not say whether two liquids form matches either "
+        "minimum-boiling or heterogeneous. Temperatures in °C; x1 is the mole fraction of "
+        "the first component (the tables print mass fractions, converted with the molar "
+        "masses).",
+        "",
+        "| Pair (1 – 2) | Recorded class | T (°C) | x1 | Predicted class | T (°C) | x1 | "
+        "ΔT (K) | Δx1 | Model | Verdict |",
+        "|---|---|---|---|---|---|---|---|---|---|---|",
+    ]
+    for r in rows:
+        c1 = catalogue.components[r.recorded.component1].name
+        c2 = catalogue.components[r.recorded.component2].name
+        recorded_class = r.recorded.behaviour_class
+        if r.recorded.heterogeneous is None and recorded_class == "minimum-boiling":
+            recorded_class += " (liquids not stated)"
+        lines.append(
+            f"| {c1} – {c2} | {recorded_class} | {_T(r.recorded.T_K)} | {_x(r.recorded.x1)} | "
+            f"{r.predicted_class or '–'} | {_T(r.T_K)} | {_x(r.x1)} | {_signed(r.dT_K, 1)} | "
+            f"{_signed(r.dx1, 3)} | {r.model or '–'} | {r.verdict()} |")
+    lines += ["", "## Sources", "", *(f"- {s}" for s in sources), ""]
+    return "\n".join(lines)
