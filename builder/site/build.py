@@ -20,12 +20,14 @@ from collections.abc import Callable, Iterable
 from dataclasses import dataclass, field
 from pathlib import Path
 
-from builder.analysis.results import compute_atlas
+from builder.analysis.results import compute_atlas, compute_pair
+from builder.analysis.second_opinion import second_opinions
 from builder.catalogue.loader import DEFAULT_CATALOGUE, load_catalogue
 from builder.errors import AtlasError
 from builder.site import DEFAULT_OUTPUT
 from builder.site.assemble import assemble, check_output_folder
 from builder.site.content import generate
+from builder.site.predicted import select_predicted
 from builder.site.settings import load_settings
 from builder.site.verify import verify_site
 
@@ -83,7 +85,17 @@ def build_site(catalogue_dir: Path | str = DEFAULT_CATALOGUE, out_dir: Path | st
     atlas = compute_atlas(catalogue)
     stage("compute", t)
     t = time.perf_counter()
-    view, content = generate(settings, catalogue, atlas, workers=workers)
+    selection = select_predicted(catalogue, settings.predicted_pairs)
+    atlas.update((pid, compute_pair(catalogue, record))
+                 for pid, record in sorted(selection.records.items()))
+    stage("predict", t)
+    t = time.perf_counter()
+    opinions = (second_opinions(catalogue, atlas, settings.summary_pressure_Pa)
+                if settings.second_opinion else {})
+    stage("compare", t)
+    t = time.perf_counter()
+    view, content = generate(settings, catalogue, atlas, workers=workers, opinions=opinions,
+                             selection=selection)
     stage("render", t)
     t = time.perf_counter()
     with tempfile.TemporaryDirectory(prefix="atlas-src-") as scratch:

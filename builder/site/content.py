@@ -19,12 +19,16 @@ from dataclasses import dataclass, field
 from typing import Any
 
 from builder.analysis.results import PairResults
+from builder.analysis.second_opinion import SecondOpinion
 from builder.catalogue.loader import Catalogue
-from builder.site.context import AtlasView, build_views
+from builder.site.context import AtlasView, Display, build_views
 from builder.site.data import atlas_json, condition_csvs, pair_json, plain
 from builder.site.figures import Figure, component_figure, pair_figures
+from builder.site.opinion import opinion_json, opinion_view
 from builder.site.pages import render_pages
-from builder.site.partners import partner_rows
+from builder.site.partners import is_predicted, partner_rows
+from builder.site.predicted import PredictedSelection
+from builder.site.predicted_figures import predicted_figure
 from builder.site.settings import SiteSettings
 from builder.site.text import UnsafeName
 
@@ -67,7 +71,10 @@ _JOBS: dict[str, Any] = {}
 
 
 def _pair_job(pid: str) -> tuple[str, tuple[Figure, ...]]:
-    return pid, pair_figures(_JOBS["atlas"][pid], _JOBS["settings"])
+    if pid in _JOBS.get("predicted", ()):  # fewer figures: one combined Txy + xy
+        return pid, predicted_figure(_JOBS["atlas"][pid], _JOBS["settings"])
+    return pid, pair_figures(_JOBS["atlas"][pid], _JOBS["settings"],
+                             _JOBS.get("opinions", {}).get(pid))
 
 
 def _component_job(cid: str) -> tuple[str, Figure]:
@@ -75,9 +82,12 @@ def _component_job(cid: str) -> tuple[str, Figure]:
 
 
 def _render_figures(settings: SiteSettings, catalogue: Catalogue,
-                    atlas: Mapping[str, PairResults], workers: int
+                    atlas: Mapping[str, PairResults], workers: int,
+                    opinions: Mapping[str, SecondOpinion] | None = None,
+                    predicted: frozenset[str] = frozenset()
                     ) -> tuple[dict[str, tuple[Figure, ...]], dict[str, Figure]]:
-    _JOBS.update(atlas=atlas, settings=settings, catalogue=catalogue)
+    _JOBS.update(atlas=atlas, settings=settings, catalogue=catalogue, opinions=opinions or {},
+                 predicted=predicted)
     try:
         pairs, components = sorted(atlas), sorted(catalogue.components)
         if workers > 1 and "fork" in multiprocessing.get_all_start_methods():
@@ -99,11 +109,24 @@ def default_workers() -> int:
 
 
 def generate(settings: SiteSettings, catalogue: Catalogue, atlas: Mapping[str, PairResults],
-             workers: int | None = None) -> tuple[AtlasView, SiteContent]:
-    """Every source file of the site, from the computed atlas (nothing is written)."""
+             workers: int | None = None,
+             opinions: Mapping[str, SecondOpinion] | None = None,
+             selection: PredictedSelection | None = None
+             ) -> tuple[AtlasView, SiteContent]:
+    """Every source file of the site, from the computed atlas (nothing is written).
+
+    ``opinions`` (:func:`builder.analysis.second_opinion.second_opinions`) adds the
+    predictive model's second opinion to the fitted pairs' figures, pages and JSON;
+    ``selection`` (:func:`.predicted.select_predicted`) says which pairs of ``atlas`` are
+    predictions and why the combinations without a page have none.
+    """
+    opinions = opinions or {}
+    selection = selection or PredictedSelection()
     view = build_views(settings, catalogue, dict(atlas))
+    predicted = frozenset(p.id for p in view.pairs if is_predicted(p, catalogue))
     pair_figs, comp_figs = _render_figures(settings, catalogue, atlas,
-                                           default_workers() if workers is None else workers)
+                                           default_workers() if workers is None else workers,
+                                           opinions, predicted)
     content = SiteContent()
     pair_data: dict[str, dict[str, Any]] = {}
     for pv in view.pairs:
@@ -113,6 +136,8 @@ def generate(settings: SiteSettings, catalogue: Catalogue, atlas: Mapping[str, P
             content.add(cv.curve_csv, curve)
             content.add(cv.table_csv, table)
         pair_data[pv.id] = pair_json(results, pv, settings)
+        if pv.id in opinions:
+            pair_data[pv.id]["second_opinion"] = opinion_json(opinions[pv.id])
         content.add(pv.json_path, json.dumps(plain(pair_data[pv.id]), indent=1, ensure_ascii=False,
                                              allow_nan=False) + "\n")
         for fig in pair_figs[pv.id]:
@@ -120,8 +145,11 @@ def generate(settings: SiteSettings, catalogue: Catalogue, atlas: Mapping[str, P
     for fig in comp_figs.values():
         content.add(fig.path, fig.svg)
     content.add("atlas.json", atlas_json(view, catalogue, atlas, pair_data))
+    display = Display(settings)
     pages = render_pages(view, pair_figs, comp_figs, {},
-                         partners=partner_rows(view, catalogue, atlas))
+                         partners=partner_rows(view, catalogue, atlas, selection.reason),
+                         opinions={pid: opinion_view(o, display) for pid, o in opinions.items()},
+                         predicted=predicted, selection=selection)
     for path, text in pages.items():
         content.add(path, text)
     return view, content
