@@ -48,6 +48,11 @@ def test_ethanol_water_second_opinion(catalogue: Catalogue, ethanol_water: PairR
     assert ethanol_water.trace is not None and ethanol_water.trace.shift_x1 < SHIFT_TOLERANCE
     assert op.verdict.startswith("The models disagree")
     assert "NRTL" in op.verdict and "Dortmund" in op.verdict
+    # The vacuum and pressure isobars the page publishes have their predicted twins.
+    others = sorted(r.condition for r in op.other_isobars)
+    assert others == sorted(r.condition for r in ethanol_water.isobars
+                            if abs(r.condition - 101325.0) >= 1.0)
+    assert op.isobar_at(101325.0) is op.predicted
 
 
 def test_zeotropic_pair_agrees_without_a_verdict(catalogue: Catalogue) -> None:

@@ -13,6 +13,8 @@ second opinion:
   ``max |T_bubble,fitted(x1) - T_bubble,predicted(x1)|`` [K] (over the points where
   both curves converged with one liquid), and whether the behaviour class
   (:func:`behaviour_class`) agrees;
+* at the pair's other published isobars (vacuum, pressure), where the fitted set is
+  extrapolated, the predicted isobar beside it;
 * against pressure, the predicted azeotrope traced over the same pressures as the
   fitted one, and a pressure-swing verdict that names the model it rests on and
   says so when the two disagree.
@@ -95,6 +97,16 @@ class SecondOpinion:
     predicted_class: str
     trace: AzeotropeTrace | None  # the predicted azeotrope against pressure
     verdict: str  # the pressure-swing verdict in words, naming the model(s)
+    #: The predicted isobars at the pair's other published pressures (vacuum, pressure),
+    #: where the fitted set is used outside the temperatures it was fitted at.
+    other_isobars: tuple[ConditionResult, ...] = ()
+
+    def isobar_at(self, P_Pa: float) -> ConditionResult | None:
+        """The predicted isobar at ``P_Pa`` (the summary one or another published one)."""
+        for result in (self.predicted, *self.other_isobars):
+            if result is not None and abs(result.condition - P_Pa) < 1.0:
+                return result
+        return None
 
     @property
     def available(self) -> bool:
@@ -250,8 +262,10 @@ def second_opinion(catalogue: Catalogue, results: PairResults,
                                 points=TRACE_POINTS)
     model = record.model.name
     verdict = _verdict(results, pair.model.name, model, trace, bool(same))
+    others = tuple(_isobar(catalogue, record, r.condition) for r in results.isobars
+                   if abs(r.condition - P_Pa) >= 1.0)
     return SecondOpinion(pair.id, model, "", P_Pa, predicted, dT, x_at, fitted_class,
-                         behaviour_class(predicted), trace, verdict)
+                         behaviour_class(predicted), trace, verdict, others)
 
 
 def second_opinions(catalogue: Catalogue, atlas: dict[str, PairResults],

@@ -1,6 +1,7 @@
 """The second opinion drawn on the fitted pair's figures.
 
-On the Txy diagram at the summary pressure, the predicted bubble and dew lines
+On each Txy diagram (the summary pressure, and the vacuum and pressure isobars
+where the fitted set is extrapolated), the predicted bubble and dew lines
 (one line style of their own: thin, dotted, dark grey, no markers, named in the
 legend); on the azeotrope-against-pressure figure, the predicted azeotrope's
 composition and temperature.  Each overlay reads the computed
@@ -37,10 +38,9 @@ def _short(model: str) -> str:
 
 def txy_overlay(opinion: SecondOpinion, display: Display,
                 result: ConditionResult) -> Overlay | None:
-    """The predicted Txy lines, for the isobar at the opinion's pressure only."""
-    predicted = opinion.predicted
-    if (predicted is None or result.kind != "isobar"
-            or abs(result.condition - opinion.P_Pa) >= 1.0):
+    """The predicted Txy lines on an isobar the opinion has (summary or other pressure)."""
+    predicted = opinion.isobar_at(result.condition) if result.kind == "isobar" else None
+    if predicted is None:
         return None
 
     def draw(ax: Axes) -> list[Line2D]:
