@@ -63,7 +63,8 @@ def test_unknown_key_names_file_entry_and_field(scratch: Path) -> None:
 def test_missing_unit_is_reported(scratch: Path) -> None:
     _edit(scratch / "components" / "ethanol.yaml", "value: 6.1370 MPa", "value: 6.1370")
     (problem,) = _problems(scratch)
-    assert "field 'constants.critical_pressure'" in problem
+    assert "field 'constants.critical_pressure.value'" in problem
+    assert "(no unit)" in problem
     assert "pressure with a unit" in problem and "found 6.137" in problem
 
 

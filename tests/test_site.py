@@ -15,11 +15,10 @@ import re
 import shutil
 from pathlib import Path
 
-import numpy as np
 import pytest
 import yaml
 
-from builder.analysis.results import PairResults, compute_pair
+from builder.analysis.results import RESULTS_VERSION, ConditionResult, PairResults, compute_pair
 from builder.analysis.stability import ThreePhase
 from builder.catalogue.loader import Catalogue
 from builder.site.assemble import AssembleError, check_output_folder
@@ -140,58 +139,39 @@ def test_settings_errors_name_the_field(tmp_path: Path, text: str, field: str) -
     assert str(path) in str(error.value)
 
 
-# -- views tolerate results with and without the newer fields --------------------------
+# -- sections whose result field is None by its documented meaning -----------------
 
 
-@dataclasses.dataclass(frozen=True)
-class _BareCondition:
-    """A condition result as the first version of builder.results made it."""
+def _without_sections(results: PairResults) -> PairResults:
+    """The same pair with no liquid split, no quick look, no trace and no checks."""
+    def strip(c: ConditionResult) -> ConditionResult:
+        return dataclasses.replace(c, three_phase=None, quicklook=None)
 
-    kind: str
-    condition: float
-    curve: object
-    drawable: np.ndarray
-    extrapolated: np.ndarray
-    azeotropes: tuple
-    azeotrope_search_complete: bool
-    volatility: object
-    warnings: tuple = ()
-    label: str = ""
-    slug: str = ""
+    return dataclasses.replace(results, isobars=tuple(strip(c) for c in results.isobars),
+                               isotherms=tuple(strip(c) for c in results.isotherms),
+                               trace=None, checks=())
 
 
-@dataclasses.dataclass(frozen=True)
-class _BarePair:
-    pair: object
-    component1: object
-    component2: object
-    isobars: tuple
-    isotherms: tuple
-    warnings: tuple = ()
-
-    @property
-    def conditions(self) -> tuple:
-        return self.isobars + self.isotherms
-
-
-def _bare(results: PairResults) -> _BarePair:
-    def strip(c: object) -> _BareCondition:
-        names = [f.name for f in dataclasses.fields(_BareCondition)]
-        return _BareCondition(**{n: getattr(c, n) for n in names})
-
-    return _BarePair(results.pair, results.component1, results.component2,
-                     tuple(strip(c) for c in results.isobars),
-                     tuple(strip(c) for c in results.isotherms), results.warnings)
-
-
-def test_pages_without_the_optional_result_fields(catalogue: Catalogue,
-                                                  small_atlas: dict[str, PairResults]) -> None:
-    bare = {pid: _bare(r) for pid, r in small_atlas.items()}
-    view, content = generate(SiteSettings(), catalogue, bare, workers=1)  # type: ignore[arg-type]
+def test_pages_leave_out_the_sections_whose_field_is_none(
+        catalogue: Catalogue, small_atlas: dict[str, PairResults]) -> None:
+    bare = {pid: _without_sections(r) for pid, r in small_atlas.items()}
+    view, content = generate(SiteSettings(), catalogue, bare, workers=1)
     page = content.files["pairs/ethanol--water.md"].decode()
     assert "Phase diagrams" in page and "Distillation quick look" not in page
     assert "Reference checks" not in page
     assert {p.id for p in view.pairs} == set(SMALL)
+
+
+def test_the_result_record_is_complete_and_versioned(
+        small_atlas: dict[str, PairResults]) -> None:
+    """Every field of the record is set by the analysis (none left to a default)."""
+    results = small_atlas["ethanol--water"]
+    assert results.version == RESULTS_VERSION
+    assert all(f.default is dataclasses.MISSING for f in dataclasses.fields(ConditionResult))
+    assert [f.name for f in dataclasses.fields(PairResults)
+            if f.default is not dataclasses.MISSING] == ["version"]
+    assert results.checks and all(c.liquid_stable.shape == c.curve.x1.shape
+                                  for c in results.conditions)
 
 
 def test_three_phase_line_is_drawn_and_tabulated(catalogue: Catalogue,
@@ -257,7 +237,7 @@ def test_small_site_has_every_page_figure_and_download(small_site: Path) -> None
 
 def test_atlas_json_and_csv(small_site: Path) -> None:
     data = json.loads((small_site / "atlas.json").read_text(encoding="utf-8"))
-    assert data["format"] == "vle-atlas/1"
+    assert data["format"] == "vle-atlas/2"
     pairs = {p["id"]: p for p in data["pairs"]}
     assert set(pairs) == set(SMALL)
     ethanol = pairs["ethanol--water"]
@@ -334,3 +314,28 @@ def test_strict_build_fails_on_an_external_resource(tmp_path: Path) -> None:
     report = assemble(content, SiteSettings(), tmp_path / "lax", tmp_path / "src2")
     assert any("cdn.example.org" in w for w in report.warnings)
     assert any("cdn.example.org" in p for p in verify_site(tmp_path / "lax").problems)
+
+
+def test_atlas_json_validates_against_its_published_schema(small_site: Path) -> None:
+    """docs/atlas-json.schema.json (validated with the jsonschema package); parameters are
+    objects of numbers and no value is a number written as text."""
+    import jsonschema
+
+    schema = json.loads((Path(__file__).parents[1] / "docs" / "atlas-json.schema.json")
+                        .read_text(encoding="utf-8"))
+    data = json.loads((small_site / "atlas.json").read_text(encoding="utf-8"))
+    jsonschema.Draft202012Validator(schema).validate(data)
+    nrtl = next(p for p in data["pairs"] if p["id"] == "ethanol--water")["parameters"]
+    # -57.9601 cal/mol (DECHEMA set as catalogued) = -242.5 J/mol with the thermochemical calorie
+    assert abs(nrtl["g12_J_per_mol"] - (-57.9601 * 4.184)) < 1e-9 and nrtl["alpha"] == 0.2937
+    quantity = re.compile(r"^\s*[-+]?\d+(\.\d*)?([eE][-+]?\d+)?\s*[A-Za-z°/]+\S*\s*$")
+    labels = {c["label"] for p in data["pairs"] for c in p["conditions"]}
+    stack: list[object] = [data]
+    while stack:
+        item = stack.pop()
+        if isinstance(item, dict):
+            stack.extend(item.values())
+        elif isinstance(item, list):
+            stack.extend(item)
+        elif isinstance(item, str):
+            assert not quantity.match(item) or item in labels, item

@@ -70,6 +70,8 @@ def test_coolprop_fluids_within_two_percent(catalogue: Catalogue) -> None:
 #: published fits disagree among themselves here; these are open for the catalogue team to
 #: resolve against measured data.  A listed component must not get worse than its bound.
 KNOWN_DISAGREEMENTS = {
+    "aniline": 0.021,  # Poling Antoine vs McGarry Wagner: 2.1 % near 388 K (no Perry 2-8 entry)
+    "ethylene-glycol": 0.025,  # Landolt Antoine vs McGarry Wagner 2.4 % near 412 K, Perry 2-8 2.7 %
     "2-butanol": 0.035,  # Landolt Antoine vs McGarry / Poling Wagner: 3.1-3.5 % near 320 K
     "2-propanol": 0.029,  # Poling Antoine vs both Wagner fits and Perry: 2.9 % near 10 kPa
     "methyl-isobutyl-ketone": 0.052,  # Perry 2-8 vs Wagner fits: 5.2-5.7 %

@@ -25,8 +25,9 @@ from dataclasses import dataclass
 import numpy as np
 from numpy.typing import NDArray
 
+from builder.analysis.phase_lines import azeotrope_points
 from builder.thermo import equilibrium as eq
-from builder.thermo.solvers import solve_bracketed
+from builder.thermo.solvers import Function, solve_bracketed
 
 __all__ = ["Azeotrope", "AzeotropeSearch", "find_azeotropes", "search_grid"]
 
@@ -85,14 +86,42 @@ def _ln_alpha(system: eq.BinarySystem, result: eq.EquilibriumResult) -> FloatArr
     return np.asarray(np.log(result.relative_volatility(system)), dtype=float)
 
 
+def _roots(system: eq.BinarySystem, lo: FloatArray, hi: FloatArray, f_lo: FloatArray,
+           f_hi: FloatArray, T_lo: FloatArray, T_hi: FloatArray, P_Pa: float | None,
+           residual: Function) -> tuple[FloatArray, NDArray[np.bool_]]:
+    """The root of ``ln α12`` in each bracket ``[lo, hi]``.
+
+    On an isobar the azeotrope's own equations (:func:`.phase_lines.azeotrope_points`)
+    are solved from the secant estimate, all brackets at once; a root that does not
+    converge inside its bracket, and every root on an isotherm (where a bubble point
+    is explicit), is found by the bracketed search along bubble points.
+    """
+    root = np.full(lo.size, np.nan)
+    converged = np.zeros(lo.size, dtype=bool)
+    if P_Pa is not None:
+        weight = f_lo / (f_lo - f_hi)
+        points = azeotrope_points(system, P_Pa, lo + weight * (hi - lo),
+                                  T_lo + weight * (T_hi - T_lo))
+        converged = points.converged & (points.x1 >= lo) & (points.x1 <= hi)
+        root = np.where(converged, points.x1, np.nan)
+    rest = np.flatnonzero(~converged)
+    if rest.size:
+        search = solve_bracketed(residual, lo[rest], hi[rest], xtol=1e-13, ftol=1e-14)
+        root[rest] = search.root
+        converged[rest] = search.converged
+    return root, converged
+
+
 def find_azeotropes(system: eq.BinarySystem, *, P_Pa: float | None = None,
                     T_K: float | None = None, grid: FloatArray | None = None,
-                    exclude: NDArray[np.bool_] | None = None) -> AzeotropeSearch:
+                    exclude: NDArray[np.bool_] | None = None,
+                    bubble: eq.EquilibriumResult | None = None) -> AzeotropeSearch:
     """Azeotropes on the isobar ``P_Pa`` or on the isotherm ``T_K`` (give one).
 
     ``exclude`` marks grid points to leave out of the search (for example
     where the homogeneous liquid is unstable); a root between excluded points
-    is not reported.
+    is not reported.  ``bubble``, when given, holds the bubble points of the grid
+    already solved at this condition (they are then not solved again).
 
     Examples
     --------
@@ -120,7 +149,7 @@ def find_azeotropes(system: eq.BinarySystem, *, P_Pa: float | None = None,
         assert T_K is not None
         return eq.bubble_pressure(system, x1, T_K)
 
-    result = solve(x)
+    result = solve(x) if bubble is None else bubble
     f = _ln_alpha(system, result)
     usable = result.converged & np.isfinite(f)
     if exclude is not None:
@@ -147,14 +176,16 @@ def find_azeotropes(system: eq.BinarySystem, *, P_Pa: float | None = None,
         def residual(u: FloatArray, mask: NDArray[np.bool_]) -> FloatArray:
             return _ln_alpha(system, solve(u))
 
-        roots = solve_bracketed(residual, lo, hi, xtol=1e-13, ftol=1e-14)
-        at = solve(roots.root)
+        root, converged = _roots(system, lo, hi, fa[change], fb[change],
+                                 result.T_K[idx[change]], result.T_K[idx[change + 1]],
+                                 P_Pa, residual)
+        at = solve(root)
         for k in range(lo.size):
-            if not (roots.converged[k] and at.converged[k]):
+            if not (converged[k] and at.converged[k]):
                 unresolved += 1
                 continue
             kind = (KIND_ISOBAR if isobar else KIND_ISOTHERM)[bool(falling[k])]
-            azeotropes.append(Azeotrope(x1=float(roots.root[k]), T_K=float(at.T_K[k]),
+            azeotropes.append(Azeotrope(x1=float(root[k]), T_K=float(at.T_K[k]),
                                         P_Pa=float(at.P_Pa[k]), kind=kind))
     for i in exact:
         before, after = f[max(i - 1, 0)], f[min(i + 1, len(f) - 1)]

@@ -30,12 +30,12 @@ from dataclasses import dataclass
 
 import numpy as np
 
-from builder.analysis.results import PairResults, compute_atlas
+from builder.analysis.results import PairResults, compute_pair
 from builder.catalogue.loader import Catalogue
 from builder.catalogue.records import Component
 
-__all__ = ["COOLPROP_HEOS", "ComponentCheck", "check_components", "markdown_report",
-           "run_checks"]
+__all__ = ["COOLPROP_HEOS", "ComponentCheck", "check_components", "failed_sets",
+           "markdown_report", "run_checks"]
 
 #: Catalogue ids of fluids that CoolProp 8 models with a reference (Helmholtz) equation
 #: of state, and CoolProp's names for them.
@@ -48,6 +48,8 @@ COOLPROP_HEOS = {
     "cyclopentane": "Cyclopentane", "diethyl-ether": "DiethylEther", "propane": "n-Propane",
     "n-butane": "n-Butane", "isobutane": "IsoButane", "propylene": "Propylene",
     "1-2-dichloroethane": "Dichloroethane", "1-butene": "1-Butene",
+    "n-nonane": "n-Nonane", "n-decane": "n-Decane", "n-undecane": "n-Undecane",
+    "n-dodecane": "n-Dodecane", "2-methylpentane": "Isohexane",
 }
 
 BOILING_POINT_TOLERANCE_K = 0.5
@@ -137,11 +139,14 @@ def check_components(catalogue: Catalogue) -> list[ComponentCheck]:
 class CheckRun:
     components: list[ComponentCheck]
     pairs: dict[str, PairResults]
+    #: Files that did not load and pairs whose computation failed, one located line each.
+    problems: tuple[str, ...] = ()
 
     @property
     def failures(self) -> list[str]:
-        lines = [f"{c.file}: entry {c.component!r}, check {c.name!r}: expected {c.expected}; "
-                 f"found {c.found}" for c in self.components if c.passed is False]
+        lines = list(self.problems)
+        lines += [f"{c.file}: entry {c.component!r}, check {c.name!r}: expected {c.expected}; "
+                  f"found {c.found}" for c in self.components if c.passed is False]
         for result in self.pairs.values():
             for check in result.failed_checks:
                 lines.append(f"{result.pair.file}: entry {result.pair.id!r}, check "
@@ -149,8 +154,41 @@ class CheckRun:
         return lines
 
 
-def run_checks(catalogue: Catalogue) -> CheckRun:
-    return CheckRun(check_components(catalogue), compute_atlas(catalogue))
+def failed_sets(catalogue: Catalogue, atlas: dict[str, PairResults]) -> dict[str, list[str]]:
+    """Pair id -> the located failures of every pair whose checks fail (its own reference
+    checks, or a failed check of one of its components): what ``atlas build`` withholds."""
+    components: dict[str, list[str]] = {}
+    for c in check_components(catalogue):
+        if c.passed is False:
+            components.setdefault(c.component, []).append(
+                f"{c.file}: entry {c.component!r}, check {c.name!r}: expected {c.expected}; "
+                f"found {c.found}")
+    out: dict[str, list[str]] = {}
+    for pid, result in atlas.items():
+        lines = [f"{result.pair.file}: entry {pid!r}, check {check.name!r}: {check.detail}"
+                 for check in result.failed_checks]
+        for cid in (result.pair.component1, result.pair.component2):
+            lines += components.get(cid, [])
+        if lines:
+            out[pid] = lines
+    return out
+
+
+def run_checks(catalogue: Catalogue, problems: Iterable[str] = ()) -> CheckRun:
+    """Every component and pair check; a pair whose computation fails is reported (file,
+    entry, what failed) and the other pairs are still checked."""
+    results: dict[str, PairResults] = {}
+    failed = list(problems)
+    for pid in sorted(catalogue.pairs):
+        pair = catalogue.pairs[pid]
+        try:
+            with np.errstate(all="ignore"), warnings.catch_warnings():
+                warnings.simplefilter("ignore", RuntimeWarning)
+                results[pid] = compute_pair(catalogue, pair)
+        except (ArithmeticError, ValueError) as error:
+            failed.append(f"{pair.file}: entry {pid!r}: expected a pair the solvers can "
+                          f"compute; found {type(error).__name__}: {error}")
+    return CheckRun(check_components(catalogue), results, tuple(failed))
 
 
 def _fmt(value: float | None, spec: str) -> str:

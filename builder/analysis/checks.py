@@ -6,33 +6,20 @@ published curve converged).  Tolerances are those a user accepts for
 screening: 1 K and 0.03 in mole fraction for an azeotrope (common practice).
 A failed check is reported on the pair's page and by the command line; it
 is never hidden, and a parameter set is never adjusted to pass.
+
+The checks read the result record (:mod:`.record`); :mod:`.results` computes the
+record and attaches the checks, so neither this module nor the record imports it.
 """
 
 from __future__ import annotations
 
-from dataclasses import dataclass
-from typing import TYPE_CHECKING
-
-if TYPE_CHECKING:
-    from builder.analysis.results import PairResults
+from builder.analysis.record import ATMOSPHERIC_PA, Check, PairResults
 
 __all__ = ["AZEOTROPE_T_TOLERANCE_K", "AZEOTROPE_X_TOLERANCE", "Check", "check_pair"]
 
 AZEOTROPE_T_TOLERANCE_K = 1.0
 AZEOTROPE_X_TOLERANCE = 0.03
-_ATM = 101325.0
-
-
-@dataclass(frozen=True)
-class Check:
-    """One check: what was compared, whether it passed, the numbers, and the reference."""
-
-    name: str
-    passed: bool
-    detail: str
-    reference: str = ""
-    deviation_T_K: float | None = None
-    deviation_x1: float | None = None
+_ATM = ATMOSPHERIC_PA
 
 
 def check_pair(results: PairResults) -> tuple[Check, ...]:
@@ -85,8 +72,7 @@ def check_pair(results: PairResults) -> tuple[Check, ...]:
                                                    for a in at_atm.azeotropes)),
             reference=source))
     if recorded.liquid_split is not None:
-        predicted = at_atm.three_phase is not None or not bool(
-            at_atm.liquid_stable is None or at_atm.liquid_stable.all())
+        predicted = at_atm.three_phase is not None or not bool(at_atm.liquid_stable.all())
         if predicted == recorded.liquid_split:
             detail = ("two liquids predicted, as recorded" if predicted
                       else "one liquid everywhere, as recorded")

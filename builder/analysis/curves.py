@@ -16,7 +16,7 @@ from numpy.typing import NDArray
 
 from builder.thermo import equilibrium as eq
 
-__all__ = ["Curve", "composition_grid", "isobar", "isotherm"]
+__all__ = ["Curve", "composition_grid", "from_bubble", "isobar", "isotherm"]
 
 FloatArray = NDArray[np.float64]
 
@@ -56,7 +56,8 @@ class Curve:
         return float(self.P_Pa[0] if self.kind == "isobar" else self.T_K[0])
 
 
-def _curve(kind: str, system: eq.BinarySystem, result: eq.EquilibriumResult) -> Curve:
+def from_bubble(kind: str, system: eq.BinarySystem, result: eq.EquilibriumResult) -> Curve:
+    """The curve of bubble points already solved (``kind`` "isobar" or "isotherm")."""
     return Curve(kind=kind, x1=result.x1, y1=result.y1, T_K=result.T_K, P_Pa=result.P_Pa,
                  gamma1=result.gamma1, gamma2=result.gamma2,
                  alpha12=result.relative_volatility(system), converged=result.converged)
@@ -65,10 +66,10 @@ def _curve(kind: str, system: eq.BinarySystem, result: eq.EquilibriumResult) -> 
 def isobar(system: eq.BinarySystem, P_Pa: float, x1: FloatArray | None = None) -> Curve:
     """Txy and xy data at ``P_Pa`` (default grid :func:`composition_grid`)."""
     grid = composition_grid() if x1 is None else np.asarray(x1, dtype=float)
-    return _curve("isobar", system, eq.bubble_temperature(system, grid, P_Pa))
+    return from_bubble("isobar", system, eq.bubble_temperature(system, grid, P_Pa))
 
 
 def isotherm(system: eq.BinarySystem, T_K: float, x1: FloatArray | None = None) -> Curve:
     """Pxy and xy data at ``T_K`` (default grid :func:`composition_grid`)."""
     grid = composition_grid() if x1 is None else np.asarray(x1, dtype=float)
-    return _curve("isotherm", system, eq.bubble_pressure(system, grid, T_K))
+    return from_bubble("isotherm", system, eq.bubble_pressure(system, grid, T_K))

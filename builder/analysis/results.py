@@ -1,94 +1,49 @@
 """Everything the atlas publishes about one pair, computed before anything is written.
 
-:func:`compute_pair` turns a catalogue pair into a :class:`PairResults`: for
-each published isobar and isotherm the curve, which points are extrapolated,
-the azeotropes, the relative-volatility summary and table, and the warnings a
-reader must see.  Figures and pages read these records; they never compute
-thermodynamics themselves.
+:func:`compute_pair` turns a catalogue pair into a :class:`PairResults` (the typed,
+versioned record of :mod:`.record`): for each published isobar and isotherm the
+curve, which points are extrapolated, the azeotropes, the relative-volatility
+summary and table, and the warnings a reader must see; the azeotrope traced against
+pressure; then the reference checks of :mod:`.checks` attached.  Figures and pages
+read these records; they never compute thermodynamics themselves.
 """
 
 from __future__ import annotations
 
-from dataclasses import dataclass, field, replace
+import dataclasses
+import itertools
+from dataclasses import replace
 
 import numpy as np
 from numpy.typing import NDArray
 
-from builder.analysis import curves, stability
-from builder.analysis.azeotropes import Azeotrope
-from builder.analysis.checks import Check, check_pair
-from builder.analysis.distillation import QuickLook, Split, quick_look
+from builder.analysis import curves
+from builder.analysis.azeotropes import search_grid
+from builder.analysis.checks import check_pair
+from builder.analysis.distillation import Split, quick_look
 from builder.analysis.point import system_for
-from builder.analysis.trace import AzeotropeTrace, analyse, trace_azeotrope
-from builder.analysis.volatility import Volatility, volatility
+from builder.analysis.record import (
+    ATMOSPHERIC_PA,
+    RESULTS_VERSION,
+    Check,
+    ConditionResult,
+    PairResults,
+)
+from builder.analysis.trace import analyse, trace_azeotrope
+from builder.analysis.volatility import ROUND_COMPOSITIONS, volatility
 from builder.catalogue.loader import Catalogue
 from builder.catalogue.records import Component, PairRecord
+from builder.thermo import equilibrium as eq
 from builder.thermo.activity import Swapped
 
-__all__ = ["ConditionResult", "PairResults", "compute_atlas", "compute_condition", "compute_pair",
-           "swapped_pair"]
-
-ATMOSPHERIC_PA = 101325.0
+__all__ = ["RESULTS_VERSION", "Check", "ConditionResult", "PairResults", "compute_atlas",
+           "compute_condition", "compute_pair", "swapped_pair"]
 
 
-@dataclass(frozen=True)
-class ConditionResult:
-    """One isobar (``kind == "isobar"``, fixed ``P_Pa``) or isotherm (fixed ``T_K``)."""
-
-    kind: str
-    condition: float  # P in Pa for an isobar, T in K for an isotherm
-    curve: curves.Curve
-    drawable: NDArray[np.bool_]  # converged points of a stable one-liquid region
-    extrapolated: NDArray[np.bool_]  # per point: outside a correlation's validity range
-    azeotropes: tuple[Azeotrope, ...]
-    azeotrope_search_complete: bool
-    volatility: Volatility
-    warnings: tuple[str, ...] = ()
-    liquid_stable: NDArray[np.bool_] | None = None  # per point, tangent-plane test
-    three_phase: stability.ThreePhase | None = None
-    quicklook: QuickLook | None = None  # isobars only
-
-    @property
-    def label(self) -> str:
-        if self.kind == "isobar":
-            return f"{self.condition / 1e3:.6g} kPa"
-        return f"{self.condition - 273.15:.6g} °C"
-
-    @property
-    def slug(self) -> str:
-        """A file-name-safe id: ``isobar-101.325kPa`` or ``isotherm-70C``."""
-        if self.kind == "isobar":
-            return f"isobar-{self.condition / 1e3:.6g}kPa"
-        return f"isotherm-{self.condition - 273.15:.6g}C"
-
-
-@dataclass(frozen=True)
-class PairResults:
-    """All computed results of one pair, components in the record's order."""
-
-    pair: PairRecord
-    component1: Component
-    component2: Component
-    isobars: tuple[ConditionResult, ...]
-    isotherms: tuple[ConditionResult, ...]
-    warnings: tuple[str, ...] = field(default=())
-    trace: AzeotropeTrace | None = None  # the 1-atm azeotrope followed against pressure
-    checks: tuple[Check, ...] = ()
-
-    @property
-    def failed_checks(self) -> tuple[Check, ...]:
-        return tuple(c for c in self.checks if not c.passed)
-
-    @property
-    def conditions(self) -> tuple[ConditionResult, ...]:
-        return self.isobars + self.isotherms
-
-    def at_atmospheric(self) -> ConditionResult | None:
-        """The 101.325 kPa isobar, if published."""
-        for result in self.isobars:
-            if abs(result.condition - ATMOSPHERIC_PA) < 1.0:
-                return result
-        return None
+def _part(result: eq.EquilibriumResult, part: slice) -> eq.EquilibriumResult:
+    """The points ``part`` of a solved set of bubble points."""
+    return eq.EquilibriumResult(*(getattr(result, f.name)[part]
+                                  for f in dataclasses.fields(eq.EquilibriumResult)))
 
 
 def _extrapolated(pair: PairRecord, c1: Component, c2: Component,
@@ -118,8 +73,15 @@ def _condition(catalogue: Catalogue, pair: PairRecord, kind: str, value: float
     c1 = catalogue.components[pair.component1]
     c2 = catalogue.components[pair.component2]
     isobar = kind == "isobar"
-    curve = curves.isobar(system, value) if isobar else curves.isotherm(system, value)
-    phases = analyse(system, pair.model, isobar, value, curve)
+    # The curve, the azeotrope search grid and the table's round compositions: one solve.
+    parts = (curves.composition_grid(), search_grid(), ROUND_COMPOSITIONS)
+    solved = (eq.bubble_temperature if isobar else eq.bubble_pressure)(
+        system, np.concatenate(parts), value)
+    ends = np.cumsum([0] + [p.size for p in parts])
+    curve_points, search_points, table_points = (
+        _part(solved, slice(a, b)) for a, b in itertools.pairwise(ends))
+    curve = curves.from_bubble(kind, system, curve_points)
+    phases = analyse(system, pair.model, isobar, value, curve, search_points)
     warnings = list(phases.warnings)
     found = phases.azeotropes
     three_phase = phases.three_phase
@@ -141,7 +103,7 @@ def _condition(catalogue: Catalogue, pair: PairRecord, kind: str, value: float
                             "curve: the modified Raoult's law does not apply there")
     vol = volatility(system, curve.x1, curve.alpha12, drawable,
                      P_Pa=value if isobar else None, T_K=None if isobar else value,
-                     has_azeotrope=bool(found))
+                     has_azeotrope=bool(found), rows=table_points)
     look = None
     if isobar:
         light = _light_component(c1, c2, value)
@@ -164,13 +126,13 @@ def compute_pair(catalogue: Catalogue, pair: PairRecord) -> PairResults:
     if reference is not None and reference.azeotropes:
         trace = trace_azeotrope(system_for(pair, catalogue), pair.model,
                                 reference.azeotropes[0], (pair.T_min_K, pair.T_max_K))
-    partial = PairResults(
+    computed = PairResults(
         pair=pair,
         component1=catalogue.components[pair.component1],
         component2=catalogue.components[pair.component2],
-        isobars=isobars, isotherms=isotherms, trace=trace,
+        isobars=isobars, isotherms=isotherms, warnings=(), trace=trace, checks=(),
     )
-    return replace(partial, checks=check_pair(partial))
+    return replace(computed, checks=check_pair(computed))
 
 
 def swapped_pair(pair: PairRecord) -> PairRecord:

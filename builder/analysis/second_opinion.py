@@ -160,7 +160,7 @@ def _isobar(catalogue: Catalogue, record: PairRecord, P_Pa: float) -> ConditionR
                            extrapolated=outside, azeotropes=phases.azeotropes,
                            azeotrope_search_complete=phases.complete, volatility=vol,
                            warnings=phases.warnings, liquid_stable=phases.liquid_stable,
-                           three_phase=phases.three_phase)
+                           three_phase=phases.three_phase, quicklook=None)
 
 
 def _bubble_difference(fitted: ConditionResult, predicted: ConditionResult

@@ -30,10 +30,11 @@ import numpy as np
 from numpy.typing import ArrayLike, NDArray
 from scipy.optimize import brentq, fsolve
 
+from builder.analysis.phase_lines import three_phase_points
 from builder.thermo import equilibrium as eq
-from builder.thermo.activity import ActivityModel
+from builder.thermo.activity import ActivityModel, Ideal, Swapped, Wilson
 
-__all__ = ["LiquidSplit", "ThreePhase", "binodal", "mixing_gibbs_RT", "stable",
+__all__ = ["LiquidSplit", "ThreePhase", "binodal", "mixing_gibbs_RT", "one_liquid_only", "stable",
            "three_phase_isobar", "three_phase_isotherm"]
 
 
@@ -94,6 +95,20 @@ def mixing_gibbs_RT(model: ActivityModel, x1: ArrayLike, T_K: ArrayLike) -> Floa
     return np.asarray(ideal + x1 * ln_g1 + x2 * ln_g2, dtype=float)
 
 
+def one_liquid_only(model: ActivityModel) -> bool:
+    """Whether the model cannot predict two liquids at all: the ideal solution, and
+    Wilson's equation, whose ``Δg_mix`` is convex for every positive ``Λ12``, ``Λ21``
+    (Prausnitz, Lichtenthaler and de Azevedo, 3rd ed., 1999, section 6.11).
+
+    >>> from builder.thermo.activity import Margules
+    >>> one_liquid_only(Ideal()), one_liquid_only(Margules.constant(3.0, 3.0))
+    (True, False)
+    """
+    while isinstance(model, Swapped):
+        model = model.inner
+    return isinstance(model, (Ideal, Wilson))
+
+
 def stable(model: ActivityModel, x1: ArrayLike, T_K: ArrayLike) -> NDArray[np.bool_]:
     """Tangent-plane test: is the liquid ``x1`` at ``T_K`` stable (one phase)?
 
@@ -109,7 +124,7 @@ def stable(model: ActivityModel, x1: ArrayLike, T_K: ArrayLike) -> NDArray[np.bo
     T = np.broadcast_to(np.asarray(T_K, dtype=float), x.shape)
     inner = (x > 0.0) & (x < 1.0)
     result = np.ones(x.shape, dtype=bool)
-    if not inner.any():
+    if not inner.any() or one_liquid_only(model):
         return result
     xi, Ti = x[inner], T[inner]
     ln_g1, ln_g2 = model.ln_gamma(xi, Ti)
@@ -195,34 +210,57 @@ def three_phase_isotherm(system: eq.BinarySystem, T_K: float) -> ThreePhase | No
                       x1_b=split.x1_b, y1=float(bubble.y1[0]))
 
 
-def three_phase_isobar(system: eq.BinarySystem, P_Pa: float, T_guess_K: float
-                       ) -> ThreePhase | None:
+def three_phase_isobar(system: eq.BinarySystem, P_Pa: float, T_guess_K: float,
+                       x1_guess: tuple[float, float] | None = None) -> ThreePhase | None:
     """VLLE on an isobar: the temperature at which the binodal liquids boil at ``P_Pa``.
 
     ``T_guess_K`` is a temperature near the expected three-phase line (the
-    homogeneous bubble temperature of an unstable liquid).  The search scans
-    ±40 K around it for a sign change of ``ln P_bubble(binodal(T)) - ln P``,
-    then up to 200 K above it (nearly immiscible liquids), and refines it with
-    Brent's method.
+    homogeneous bubble temperature of an unstable liquid).  With ``x1_guess``
+    (the ends of the unstable stretch of the bubble curve) the three equations
+    of the point are solved directly by Newton's method
+    (:func:`builder.analysis.phase_lines.three_phase_points`), accepted within
+    ±40 K of the guess.  Otherwise, or when that fails, the search scans ±40 K
+    around the guess for a sign change of ``ln P_bubble(binodal(T)) - ln P``
+    (10 K steps, then 2.5 K), then up to 200 K above it (nearly immiscible
+    liquids), and refines it with Brent's method.
     """
+    if x1_guess is not None:
+        point = three_phase_points(system, P_Pa, x1_guess[0], x1_guess[1], T_guess_K)
+        if point.converged[0] and abs(point.T_K[0] - T_guess_K) <= 40.0:
+            return ThreePhase(T_K=float(point.T_K[0]), P_Pa=P_Pa, x1_a=float(point.x1_a[0]),
+                              x1_b=float(point.x1_b[0]), y1=float(point.y1[0]))
+
     def mismatch(T: float) -> float:
         split = binodal(system.activity, T)
         if split is None:
             return float("nan")
         return float(np.log(_split_bubble(system, split).P_Pa[0]) - np.log(P_Pa))
 
-    temperatures = T_guess_K + np.linspace(-40.0, 40.0, 33)
-    values = np.array([mismatch(float(T)) for T in temperatures])
-    for i in range(values.size - 1):
-        a, b = values[i], values[i + 1]
-        if np.isfinite(a) and np.isfinite(b) and a * b <= 0:
-            return _three_phase_at(system, P_Pa, mismatch, temperatures[i], temperatures[i + 1])
+    known: dict[float, float] = {}
+
+    def cached(T: float) -> float:
+        if T not in known:
+            known[T] = mismatch(T)
+        return known[T]
+
+    # A coarse pass (10 K) first: each point is a binodal, the costly part.  The fine pass
+    # (2.5 K) catches a split that exists over a narrow range of temperatures only.
+    for points in (9, 33):
+        temperatures = T_guess_K + np.linspace(-40.0, 40.0, points)
+        values = np.array([cached(float(T)) for T in temperatures])
+        for i in range(values.size - 1):
+            a, b = values[i], values[i + 1]
+            if np.isfinite(a) and np.isfinite(b) and a * b <= 0:
+                return _three_phase_at(system, P_Pa, mismatch, temperatures[i],
+                                       temperatures[i + 1])
+        if np.isfinite(values).all() and (values < 0).all():
+            break  # two liquids throughout, all boiling above P: the line lies higher up
     # Nearly immiscible liquids (hydrocarbons or chlorinated solvents with water) have
     # metastable one-liquid bubble temperatures far below the three-phase line: go on
     # upwards until the binodal liquids boil at P.
     previous_T, previous = float(temperatures[-1]), float(values[-1])
     for T in T_guess_K + np.arange(45.0, 205.0, 5.0):
-        value = mismatch(float(T))
+        value = cached(float(T))
         if np.isfinite(previous) and np.isfinite(value) and previous * value <= 0:
             return _three_phase_at(system, P_Pa, mismatch, previous_T, float(T))
         previous_T, previous = float(T), value

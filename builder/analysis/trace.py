@@ -2,12 +2,15 @@
 
 :func:`analyse` combines the liquid-stability test, the three-phase line and
 the azeotrope search for one isobar or isotherm; :func:`trace_azeotrope`
-repeats it over a range of pressures and follows the azeotrope.  Both return
-plain records for :mod:`builder.results`.
+follows one azeotrope over a range of pressures by solving its own equations at
+every pressure at once (:mod:`.phase_lines`), analysing a pressure in full only
+where that cannot settle it.  Both return plain records for
+:mod:`builder.analysis.results`.
 """
 
 from __future__ import annotations
 
+from collections.abc import Callable
 from dataclasses import dataclass
 
 import numpy as np
@@ -21,10 +24,14 @@ from builder.analysis.azeotropes import (
     find_azeotropes,
     search_grid,
 )
+from builder.analysis.phase_lines import azeotrope_points, three_phase_points
 from builder.thermo import equilibrium as eq
 from builder.thermo.activity import ActivityModel
 
 __all__ = ["AzeotropeTrace", "Phases", "analyse", "trace_azeotrope"]
+
+#: Liquid compositions of the curve analysed at one pressure of the trace.
+_TRACE_GRID = curves.composition_grid(61)
 
 #: Common practice: a shift of 5 mol % or more across the pressure range is a first hint
 #: that pressure-swing distillation deserves a look.
@@ -42,16 +49,23 @@ class Phases:
 
 
 def analyse(system: eq.BinarySystem, model: ActivityModel, isobar: bool, value: float,
-            curve: curves.Curve) -> Phases:
-    """Liquid stability along a curve, the three-phase line and every azeotrope."""
+            curve: curves.Curve, searched: eq.EquilibriumResult | None = None) -> Phases:
+    """Liquid stability along a curve, the three-phase line and every azeotrope.
+
+    ``searched``: the bubble points of :func:`.azeotropes.search_grid` at this condition,
+    when already solved.
+    """
     warnings: list[str] = []
     liquid_stable = stability.stable(model, curve.x1, curve.T_K)
     three_phase = None
     inside_gap = ~liquid_stable
     if not liquid_stable.all():
         if isobar:
-            guess = float(np.min(curve.T_K[~liquid_stable & curve.converged]))
-            three_phase = stability.three_phase_isobar(system, value, guess)
+            unstable = ~liquid_stable & curve.converged
+            guess = float(np.min(curve.T_K[unstable]))
+            x_unstable = curve.x1[unstable]
+            three_phase = stability.three_phase_isobar(
+                system, value, guess, (float(x_unstable.min()), float(x_unstable.max())))
         else:
             three_phase = stability.three_phase_isotherm(system, value)
         if three_phase is None:
@@ -63,7 +77,8 @@ def analyse(system: eq.BinarySystem, model: ActivityModel, isobar: bool, value: 
     search = find_azeotropes(system, P_Pa=value if isobar else None,
                              T_K=None if isobar else value,
                              exclude=None if liquid_stable.all() else _search_exclusion(
-                                 system, model, value, isobar, three_phase))
+                                 system, model, value, isobar, three_phase),
+                             bubble=searched)
     found = list(search.azeotropes)
     if three_phase is not None and three_phase.heterogeneous_azeotrope:
         found.append(Azeotrope(
@@ -88,6 +103,89 @@ def _search_exclusion(system: eq.BinarySystem, model: ActivityModel, value: floa
     return ~stability.stable(model, grid, result.T_K)
 
 
+
+
+def _continue(solve: Callable[[int, int], bool], ok: NDArray[np.bool_], start: int) -> None:
+    """Retry failed points from their converged neighbour, outwards from ``start``."""
+    for order in (range(start + 1, ok.size), range(start - 1, -1, -1)):
+        for i in order:
+            j = i - 1 if i > start else i + 1
+            if not ok[i] and ok[j]:
+                ok[i] = solve(i, j)
+
+
+def _follow(system: eq.BinarySystem, model: ActivityModel, reference: Azeotrope,
+            pressures: NDArray[np.float64]) -> list[Azeotrope | None]:
+    """The azeotrope of ``reference``'s kind at each pressure, or None."""
+    n = pressures.size
+    start = int(np.argmin(np.abs(pressures - reference.P_Pa)))
+    found: list[Azeotrope | None] = [None] * n
+    settled = np.zeros(n, dtype=bool)
+    if reference.heterogeneous and reference.liquid_x1 is not None:
+        xa, xb = reference.liquid_x1
+        T0 = eq.bubble_temperature(system, np.full(n, xa), pressures).T_K
+        line = three_phase_points(system, pressures, xa, xb, T0)
+        T3, xa3, xb3, y3 = line.T_K.copy(), line.x1_a.copy(), line.x1_b.copy(), line.y1.copy()
+        ok = line.converged & (xa3 < y3) & (y3 < xb3)
+
+        def retry3(i: int, j: int) -> bool:
+            again = three_phase_points(system, pressures[i], xa3[j], xb3[j], T3[j])
+            T3[i], xa3[i], xb3[i], y3[i] = (again.T_K[0], again.x1_a[0], again.x1_b[0],
+                                           again.y1[0])
+            return bool(again.converged[0] and xa3[i] < y3[i] < xb3[i])
+
+        _continue(retry3, ok, start)
+        for i in np.flatnonzero(ok):
+            found[i] = Azeotrope(x1=float(y3[i]), T_K=float(T3[i]), P_Pa=float(pressures[i]),
+                                 kind=reference.kind, heterogeneous=True,
+                                 liquid_x1=(float(xa3[i]), float(xb3[i])))
+        settled |= ok
+    else:
+        falling = reference.kind == KIND_ISOBAR[True]
+        T0 = eq.bubble_temperature(system, np.full(n, reference.x1), pressures).T_K
+        az = azeotrope_points(system, pressures, reference.x1, T0)
+        x, T, fall = az.x1.copy(), az.T_K.copy(), az.falling.copy()
+        ok = az.converged & (fall == falling)
+
+        def retry(i: int, j: int) -> bool:
+            again = azeotrope_points(system, pressures[i], x[j], T[j])
+            x[i], T[i], fall[i] = again.x1[0], again.T_K[0], again.falling[0]
+            return bool(again.converged[0] and fall[i] == falling)
+
+        _continue(retry, ok, start)
+        ok &= stability.stable(model, x, T)
+        for i in np.flatnonzero(ok):
+            found[i] = Azeotrope(x1=float(x[i]), T_K=float(T[i]), P_Pa=float(pressures[i]),
+                                 kind=reference.kind)
+        settled |= ok
+    rest = np.flatnonzero(~settled)
+    if rest.size:
+        settled[rest] = _none_of_kind(system, model, reference.kind, pressures[rest])
+    for i in np.flatnonzero(~settled):
+        phases = analyse(system, model, True, float(pressures[i]),
+                         curves.isobar(system, float(pressures[i]), _TRACE_GRID))
+        same = [a for a in phases.azeotropes if a.kind == reference.kind]
+        found[i] = min(same, key=lambda a: abs(a.x1 - reference.x1)) if same else None
+    return found
+
+
+def _none_of_kind(system: eq.BinarySystem, model: ActivityModel, kind: str,
+                  pressures: NDArray[np.float64]) -> NDArray[np.bool_]:
+    """Per pressure: certainly no azeotrope of ``kind`` (no sign change of ``ln α12``
+    between the pure ends in that kind's direction, and one stable liquid along the
+    bubble curve)."""
+    ends = eq.bubble_temperature(system, np.array([[0.0], [1.0]]), pressures[None, :])
+    ln_alpha = np.log(ends.relative_volatility(system))
+    falling = kind == KIND_ISOBAR[True]
+    crossing = (ln_alpha[0] > 0) & (ln_alpha[1] < 0) if falling else (
+        (ln_alpha[0] < 0) & (ln_alpha[1] > 0))
+    none = ends.converged.all(axis=0) & ~crossing
+    if none.any():
+        grid = _TRACE_GRID[None, :]
+        curve = eq.bubble_temperature(system, grid, pressures[none][:, None])
+        flat = stability.stable(model, curve.x1.ravel(), curve.T_K.ravel())
+        none[none] = (flat.reshape(curve.x1.shape) | ~curve.converged).all(axis=1)
+    return none
 
 
 @dataclass(frozen=True)
@@ -123,22 +221,23 @@ def trace_azeotrope(system: eq.BinarySystem, model: ActivityModel, reference: Az
     """Follow ``reference`` (an azeotrope on one isobar) from ``P_min_Pa`` to ``P_max_Pa``.
 
     The range is clipped to the pressures at which both pure components boil
-    inside their vapour-pressure correlations' ranges.  At each pressure the
-    azeotrope of the same kind nearest in composition to its neighbour is
-    followed; where none is found, the trace records where it left (towards
-    which pure end).
+    inside their vapour-pressure correlations' ranges.  The azeotrope's own
+    equations are solved at every pressure at once (:mod:`.phase_lines`: a
+    homogeneous azeotrope's ``α12 = 1`` on the bubble curve, a heterogeneous one's
+    three-phase point), retried from the neighbouring pressure's solution where
+    the first solve fails.  A homogeneous solution counts only where its liquid
+    is stable and its kind is the reference's.  Where no solution counts, a
+    pressure with no sign change of ``ln α12`` between the pure ends and one stable
+    liquid along its bubble curve has no azeotrope of that kind; any other
+    pressure is analysed in full (:func:`analyse`) and the azeotrope of the same
+    kind nearest in composition to the reference is taken.  The trace records
+    where the azeotrope leaves (towards which pure end).
     """
     pressures = _clipped_pressures(system, P_min_Pa, P_max_Pa, points)
     if pressures.size < 2:
         return None
     pressures = np.unique(np.append(pressures, reference.P_Pa))
-    grid = curves.composition_grid(61)
-    found: list[Azeotrope | None] = []
-    for P in pressures:
-        curve = curves.isobar(system, float(P), grid)
-        phases = analyse(system, model, True, float(P), curve)
-        same = [a for a in phases.azeotropes if a.kind == reference.kind]
-        found.append(min(same, key=lambda a: abs(a.x1 - reference.x1)) if same else None)
+    found = _follow(system, model, reference, pressures)
     x1 = np.array([a.x1 if a else np.nan for a in found])
     T = np.array([a.T_K if a else np.nan for a in found])
     het = np.array([bool(a and a.heterogeneous) for a in found])

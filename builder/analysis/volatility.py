@@ -83,12 +83,14 @@ def difficulty(alpha_lh_min: float, has_azeotrope: bool) -> tuple[str, str]:
 
 def volatility(system: eq.BinarySystem, x1: FloatArray, alpha12: FloatArray,
                usable: NDArray[np.bool_], *, P_Pa: float | None = None,
-               T_K: float | None = None, has_azeotrope: bool = False) -> Volatility:
+               T_K: float | None = None, has_azeotrope: bool = False,
+               rows: eq.EquilibriumResult | None = None) -> Volatility:
     """Summarise ``alpha12`` along a curve and tabulate it at round compositions.
 
     ``x1``/``alpha12`` are the curve's points; ``usable`` masks points that
     converged and lie in a stable one-liquid region.  The table is solved
-    afresh at :data:`ROUND_COMPOSITIONS` at the isobar ``P_Pa`` or isotherm ``T_K``.
+    afresh at :data:`ROUND_COMPOSITIONS` at the isobar ``P_Pa`` or isotherm ``T_K``
+    (or read from ``rows``, those bubble points already solved).
     """
     x = np.asarray(x1, dtype=float)
     a = np.asarray(alpha12, dtype=float)
@@ -98,12 +100,13 @@ def volatility(system: eq.BinarySystem, x1: FloatArray, alpha12: FloatArray,
     i_min, i_max = int(np.argmin(al)), int(np.argmax(al))
     grade, text = difficulty(float(lh.min()), has_azeotrope)
 
-    if P_Pa is not None:
-        rows = eq.bubble_temperature(system, ROUND_COMPOSITIONS, P_Pa)
-    elif T_K is not None:
-        rows = eq.bubble_pressure(system, ROUND_COMPOSITIONS, T_K)
-    else:
+    if P_Pa is None and T_K is None:
         raise ValueError("give P_Pa (isobar) or T_K (isotherm)")
+    if rows is None and P_Pa is not None:
+        rows = eq.bubble_temperature(system, ROUND_COMPOSITIONS, P_Pa)
+    elif rows is None and T_K is not None:
+        rows = eq.bubble_pressure(system, ROUND_COMPOSITIONS, T_K)
+    assert rows is not None
     row_alpha = rows.relative_volatility(system)
     table = tuple(
         VolatilityRow(float(rows.x1[i]), float(rows.y1[i]), float(rows.T_K[i]),

@@ -61,7 +61,7 @@ def parse_groups(block: _Entry, load_source: Callable[[_Entry], Source | None],
     """
     variants: dict[str, dict[str, int] | None] = {}
     for variant in VARIANTS:
-        raw = block.raw(variant, None)
+        raw = block.get(variant)
         table = tables(variant) if tables is not None else None
         counts = None if raw is None else _counts(block, variant, raw, table)
         if counts and table is not None and formula:

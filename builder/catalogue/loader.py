@@ -7,25 +7,33 @@ Layout of a catalogue folder (the shipped one is ``pairs/``)::
     binaries/<id1>--<id2>.yaml   one pair per file
 
 Loading is strict: unknown keys, missing fields, numbers without units where
-a unit is required, wrong types and references to unknown ids are all
-errors naming the file, the entry and the field.  Every problem in the whole
-catalogue is collected and reported at once (:class:`CatalogueErrors`).
-Only ``yaml.safe_load`` is used.  The file format is described in
-``DEVELOPERS.md``.
+a unit is required, values outside their physical range, wrong types and
+references to unknown ids are all errors naming the file, the entry and the
+field.  Every field's kind, unit and range is declared once, in
+:mod:`builder.catalogue.fields` (the JSON Schema is generated from the same
+declarations); files are read by :mod:`builder.catalogue.reader` (bounded
+size and depth, no duplicate keys, safe YAML only) and every correlation and
+activity model is checked numerically over its range
+(:mod:`builder.catalogue.soundness`).  Every problem in the whole catalogue is
+collected and reported at once (:class:`CatalogueErrors`).  The file format is
+described in ``DEVELOPERS.md``.
 """
 
 from __future__ import annotations
 
 import math
+import re
 from collections.abc import Callable, Iterable, Mapping
 from dataclasses import dataclass
+from dataclasses import replace as _replace
 from pathlib import Path
 from typing import Any, TypeVar
 
-import yaml
-
+from builder.catalogue import fields
+from builder.catalogue.fields import AZEOTROPE_KINDS, QUALITIES, Block, Field
 from builder.catalogue.group_tables import DEFAULT_GROUPS, group_tables
 from builder.catalogue.groups import parse_groups
+from builder.catalogue.reader import ReadProblem, read_yaml
 from builder.catalogue.records import (
     PAIR_SEPARATOR,
     SLUG,
@@ -36,10 +44,12 @@ from builder.catalogue.records import (
     Reference,
     Source,
 )
+from builder.catalogue.soundness import model_problem, vapour_pressure_problem
 from builder.errors import CatalogueError, CatalogueErrors
 from builder.thermo import activity as act
 from builder.thermo.units import (
     GAS_CONSTANT_J_PER_MOL_K,
+    SI_UNIT,
     UnitError,
     parse_quantity,
     split_quantity,
@@ -47,41 +57,31 @@ from builder.thermo.units import (
 )
 from builder.thermo.vapour_pressure import Antoine, ExtendedAntoine, VapourPressure
 
-__all__ = ["DEFAULT_CATALOGUE", "Catalogue", "load_catalogue"]
+__all__ = ["AZEOTROPE_KINDS", "DEFAULT_CATALOGUE", "QUALITIES", "Catalogue", "load_catalogue"]
 
 #: The catalogue shipped with the project.
 DEFAULT_CATALOGUE = Path(__file__).resolve().parents[2] / "pairs"
 
 T = TypeVar("T")
 
-_EXAMPLES = {
-    "temperature": "'351.4 K' or '78.3 C'",
-    "pressure": "'101.325 kPa', '1 atm' or '760 mmHg'",
-    "molar_energy": "'-57.96 cal/mol', '1200 J/mol' or '150 K' (energy/R)",
-    "molar_mass": "'46.07 g/mol'",
-    "molar_volume": "'58.7 cm3/mol'",
-}
-
-QUALITIES = {
-    "regressed": "fitted by its authors to measured VLE data",
-    "predicted": "estimated by a predictive method, not fitted to data of this pair",
-    "unverified": "transcribed from memory; not yet checked against the printed source",
-    "ideal": "ideal-solution assumption (no mixture parameters)",
-    "demo": "invented demonstration data, not for any use",
-}
-
-AZEOTROPE_KINDS = ("minimum-boiling", "maximum-boiling")
-
 
 class _Entry:
-    """Typed access to one mapping of a YAML file, recording every problem found."""
+    """One mapping of a YAML file read through its declared :class:`Block`.
+
+    Every value is read with :meth:`get`, which applies the field's declared kind,
+    unit and range (:mod:`builder.catalogue.fields`) and records each problem with
+    the file, entry and field.  :meth:`finish` reports undeclared keys, missing
+    required fields and incomplete alternatives.
+    """
 
     def __init__(self, file: str, entry: str, data: Any, errors: list[CatalogueError],
-                 prefix: str = "") -> None:
+                 block: Block, prefix: str = "", variant: str = "") -> None:
         self.file = file
         self.entry = entry
         self.errors = errors
         self.prefix = prefix
+        self.block = block
+        self.variant = variant
         self._errors_before = len(errors)
         if not isinstance(data, Mapping):
             self._fail("", "a mapping of field names to values", _show(data))
@@ -105,110 +105,323 @@ class _Entry:
         self._fail(name, expected, _show(found))
 
     def finish(self) -> None:
-        """Report keys nobody asked for (typos, unsupported fields)."""
+        """Report undeclared keys, missing required fields and incomplete alternatives."""
+        declared = self.block.all_fields(self.variant)
+        other_variants = {f.name for fs in self.block.variants.values() for f in fs}
         for key in self.data:
-            if key not in self.used:
-                known = ", ".join(sorted(self.used)) or "none"
-                self._fail(str(key), f"only known fields here ({known})", "an unknown field")
+            if key in declared or key in self.used:
+                continue
+            if not self.variant and key in other_variants:
+                continue  # the selector itself is wrong and reported
+            known = ", ".join(sorted(declared)) or "none"
+            self._fail(str(key), f"only known fields here ({known})", "an unknown field")
+        for name, spec in declared.items():
+            if spec.required and name not in self.used and self.data.get(name) is None:
+                self._fail(name, _expected(spec), "nothing (the field is missing)")
+        if self.block.one_of:
+            given = [g for g in self.block.one_of if any(self.data.get(k) is not None
+                                                         for k in g)]
+            if len(given) != 1:
+                forms = " or ".join("/".join(g) for g in self.block.one_of)
+                self._fail("", f"exactly one of {forms}",
+                           ", ".join(sorted(map(str, self.data))) or "none of them")
+            else:
+                for name in given[0]:
+                    if self.data.get(name) is None:
+                        self._fail(name, _expected(declared[name]),
+                                   "nothing (the field is missing)")
 
     # -- access -------------------------------------------------------------
     def has(self, name: str) -> bool:
-        return name in self.data
+        return self.data.get(name) is not None
 
-    def raw(self, name: str, default: Any = ..., expected: str = "a value") -> Any:
+    def spec(self, name: str) -> Field:
+        return self.block.field(name, self.variant)
+
+    def get(self, name: str) -> Any:
+        """The value of a declared field, converted to SI and checked against its range.
+
+        A missing optional field gives None; a bad or missing required one records a
+        located error and gives an empty value of the field's type (NaN for numbers).
+        """
+        spec = self.spec(name)
         self.used.add(name)
-        if name not in self.data or self.data[name] is None:
-            if default is ...:
-                self._fail(name, expected, "nothing (the field is missing)")
-                return None
-            return default
-        return self.data[name]
+        raw = self.data.get(name)
+        if raw is None:
+            if spec.required:
+                self._fail(name, _expected(spec), "nothing (the field is missing)")
+                return _EMPTY.get(spec.kind)
+            return None
+        return _READERS[spec.kind](self, spec, raw)
 
-    def text(self, name: str, default: Any = ...) -> str:
-        value = self.raw(name, default, "a text")
-        if value is None:
-            return ""
-        if default is not ... and value is default:
-            return str(value)
-        if not isinstance(value, str) or not value.strip():
-            self.fail(name, "a non-empty text", value)
-            return ""
-        return value.strip()
+    def child(self, name: str) -> _Entry | None:
+        """A nested block (None when absent; an error when required and absent).
 
-    def slug(self, name: str) -> str:
-        value = self.text(name)
-        if value and not SLUG.match(value):
-            self.fail(name, "a slug of lower-case letters, digits and single hyphens", value)
-            return ""
-        return value
+        A block with a selector (``model``, ``equation``) is read with the fields of the
+        selected variant.
+        """
+        spec = self.spec(name)
+        assert spec.block is not None
+        self.used.add(name)
+        raw = self.data.get(name)
+        if raw is None:
+            if spec.required:
+                self._fail(name, _expected(spec), "nothing (the field is missing)")
+            return None
+        variant = ""
+        selector = spec.block.selector
+        if selector and isinstance(raw, Mapping):
+            chosen = raw.get(selector)
+            variant = chosen if isinstance(chosen, str) and chosen in spec.block.variants else ""
+        return _Entry(self.file, self.entry, raw, self.errors, spec.block,
+                      prefix=f"{self._path(name)}.", variant=variant)
 
-    def number(self, name: str, default: Any = ..., positive: bool = False) -> float:
-        value = self.raw(name, default, "a number")
-        if value is None:
-            return math.nan
-        if (isinstance(value, bool) or not isinstance(value, (int, float))
-                or not math.isfinite(value)):
-            self.fail(name, "a plain number", value)
-            return math.nan
-        if positive and value <= 0:
-            self.fail(name, "a positive number", value)
-        return float(value)
+    def children(self, name: str) -> list[_Entry]:
+        """A list of nested blocks (empty when absent)."""
+        spec = self.spec(name)
+        assert spec.block is not None
+        self.used.add(name)
+        raw = self.data.get(name)
+        if raw is None:
+            return []
+        if not isinstance(raw, list):
+            self.fail(name, f"a list of {spec.block.name} entries", raw)
+            return []
+        return [_Entry(self.file, self.entry, item, self.errors, spec.block,
+                       prefix=f"{self._path(name)}[{index}].")
+                for index, item in enumerate(raw)]
 
-    def quantity(self, name: str, dimension: str) -> float:
-        """A required dimensional value, converted to SI (NaN and an error if missing)."""
-        value = self.raw(name, expected=f"a {dimension.replace('_', ' ')} with a unit")
-        if value is None:
-            return math.nan
-        return self.convert(name, value, dimension)
 
-    def convert(self, name: str, value: Any, dimension: str) -> float:
-        expected = f"a {dimension.replace('_', ' ')} with a unit, such as {_EXAMPLES[dimension]}"
-        if not isinstance(value, str):
-            self.fail(name, expected, value)
-            return math.nan
+_EXAMPLES = {
+    "temperature": "'351.4 K' or '78.3 C'",
+    "pressure": "'101.325 kPa', '1 atm' or '760 mmHg'",
+    "molar_energy": "'-57.96 cal/mol', '1200 J/mol' or '150 K' (energy/R)",
+    "molar_mass": "'46.07 g/mol'",
+    "molar_volume": "'58.7 cm3/mol'",
+}
+
+_PLAIN_NUMBER = re.compile(r"^\s*[-+]?(?:\d+\.?\d*|\.\d+)(?:[eE][-+]?\d+)?\s*$")
+
+
+def _expected(spec: Field) -> str:
+    kind = spec.kind
+    if kind in ("quantity", "range", "quantities"):
+        dim = spec.dimension.replace("_", " ")
+        what = f"a {dim} with a unit, such as {_EXAMPLES[spec.dimension]}"
+        if kind == "range":
+            return "a list of two temperatures, such as ['50 C', '100 C']"
+        if kind == "quantities":
+            return f"a list of {spec.dimension.replace('_', ' ')}s with units"
+        return what
+    if kind == "choice":
+        return "one of " + ", ".join(repr(c) for c in spec.choices)
+    if kind in ("block", "blocks"):
+        return "a mapping" if kind == "block" else "a list of mappings"
+    return {"text": "a text", "slug": "a slug of lower-case letters, digits and single hyphens",
+            "number": "a number", "integer": "a whole number", "boolean": "true or false",
+            "texts": "a list of texts", "label": "a text or a number",
+            "tfunction": "a number or a mapping of a, b, c, d",
+            "coefficient": f"a coefficient with the unit {spec.unit}"}.get(kind, "a value")
+
+
+def _read_text(entry: _Entry, spec: Field, raw: Any) -> str:
+    if not isinstance(raw, str) or not raw.strip():
+        entry.fail(spec.name, "a non-empty text", raw)
+        return ""
+    value = raw.strip()
+    if spec.kind == "slug" and not SLUG.match(value):
+        entry.fail(spec.name, "a slug of lower-case letters, digits and single hyphens", value)
+        return ""
+    if spec.pattern and not re.match(spec.pattern, value):
+        entry.fail(spec.name, _PATTERN_TEXT.get(spec.pattern, f"a text matching {spec.pattern}"),
+                   value)
+        return ""
+    return value
+
+
+def _read_number(entry: _Entry, spec: Field, raw: Any) -> float:
+    if isinstance(raw, bool) or not isinstance(raw, (int, float)):
+        hint = " (a number in quotes is a text)" if isinstance(raw, str) and \
+            _PLAIN_NUMBER.match(raw) else ""
+        entry.fail(spec.name, "a plain number" + hint, raw)
+        return math.nan
+    try:
+        value = float(raw)
+    except OverflowError:
+        entry._fail(spec.name, "a number of ordinary size", f"an integer of {len(str(raw))} digits")
+        return math.nan
+    if not math.isfinite(value):
+        entry.fail(spec.name, "a finite number", raw)
+        return math.nan
+    if spec.kind == "integer" and value != int(value):
+        entry.fail(spec.name, "a whole number", raw)
+        return math.nan
+    if not spec.within(value):
+        entry.fail(spec.name, f"a number {spec.bounds_text()}", raw)
+        return math.nan
+    return value
+
+
+def _si_bounds(spec: Field) -> str:
+    text = spec.bounds_text()
+    return f"{text} {SI_UNIT[spec.dimension]}" if text else ""
+
+
+def _convert(entry: _Entry, spec: Field, raw: Any, name: str = "") -> float:
+    """A dimensional value written with its unit, converted to SI and range-checked."""
+    name = name or spec.name
+    dimension = spec.dimension
+    expected = f"a {dimension.replace('_', ' ')} with a unit, such as {_EXAMPLES[dimension]}"
+    if isinstance(raw, bool) or not isinstance(raw, (str, int, float)):
+        entry.fail(name, expected, raw)
+        return math.nan
+    if not isinstance(raw, str) or _PLAIN_NUMBER.match(raw):
+        entry._fail(name, expected, f"{_show(raw)} (no unit)")
+        return math.nan
+    try:
+        if dimension in ("temperature", "pressure"):
+            value = parse_quantity(raw, dimension)
+        else:
+            number, unit = split_quantity(raw)
+            value = to_si(number, unit, dimension)
+    except (UnitError, OverflowError) as error:
+        detail = "" if str(error).startswith("expected") else f" ({error})"
+        entry.fail(name, expected + detail, raw)
+        return math.nan
+    if not spec.within(value):
+        entry.fail(name, f"a {dimension.replace('_', ' ')} {_si_bounds(spec)}", raw)
+        return math.nan
+    return value
+
+
+def _read_quantity(entry: _Entry, spec: Field, raw: Any) -> float:
+    return _convert(entry, spec, raw)
+
+
+def _read_coefficient(entry: _Entry, spec: Field, raw: Any) -> float:
+    """A signed coefficient that must carry exactly the unit ``spec.unit`` (K or 1/K)."""
+    example = "-103.3 K" if spec.unit == "K" else "-0.00523 1/K"
+    if isinstance(raw, str):
         try:
-            if dimension in ("temperature", "pressure"):
-                return parse_quantity(value, dimension)
-            number, unit = split_quantity(value)
-            result = to_si(number, unit, dimension)
-        except UnitError as error:
-            self.fail(name, expected + f" ({error})", value)
-            return math.nan
-        if dimension in ("molar_mass", "molar_volume") and result <= 0:
-            self.fail(name, f"a positive {dimension.replace('_', ' ')}", value)
-        return result
+            number, found = split_quantity(raw)
+        except UnitError:
+            found = ""
+        if found == spec.unit and math.isfinite(number):
+            if not spec.within(number):
+                entry.fail(spec.name, f"a coefficient {spec.bounds_text()} {spec.unit}", raw)
+                return math.nan
+            return number
+    entry.fail(spec.name, f"a coefficient with the unit {spec.unit}, such as {example!r}", raw)
+    return math.nan
 
-    def choice(self, name: str, options: Iterable[str], default: Any = ...) -> str:
-        options = tuple(options)
-        value = self.raw(name, default, "one of " + ", ".join(options))
-        if value is None:
-            return ""
-        if value not in options:
-            self.fail(name, "one of " + ", ".join(repr(o) for o in options), value)
-            return ""
-        return str(value)
 
-    def text_list(self, name: str) -> tuple[str, ...]:
-        value = self.raw(name, [], "a list of texts")
-        if not isinstance(value, list) or not all(isinstance(v, str) and v.strip() for v in value):
-            self.fail(name, "a list of non-empty texts", value)
-            return ()
-        return tuple(v.strip() for v in value)
+def _read_choice(entry: _Entry, spec: Field, raw: Any) -> str:
+    if not isinstance(raw, str) or raw not in spec.choices:
+        entry.fail(spec.name, "one of " + ", ".join(repr(c) for c in spec.choices), raw)
+        return ""
+    return raw
 
-    def child(self, name: str, default: Any = ...) -> _Entry | None:
-        value = self.raw(name, default, "a mapping")
-        if value is None:
-            return None
-        return _Entry(self.file, self.entry, value, self.errors, prefix=f"{self._path(name)}.")
 
-    def boolean(self, name: str, default: Any = ...) -> bool | None:
-        value = self.raw(name, default, "true or false")
-        if value is None:
-            return None
-        if not isinstance(value, bool):
-            self.fail(name, "true or false", value)
-            return None
-        return value
+def _read_boolean(entry: _Entry, spec: Field, raw: Any) -> bool | None:
+    if not isinstance(raw, bool):
+        entry.fail(spec.name, "true or false", raw)
+        return None
+    return raw
+
+
+def _read_texts(entry: _Entry, spec: Field, raw: Any) -> tuple[str, ...]:
+    if not isinstance(raw, list) or not all(isinstance(v, str) and v.strip() for v in raw):
+        entry.fail(spec.name, "a list of non-empty texts", raw)
+        return ()
+    values = tuple(v.strip() for v in raw)
+    if len(values) < spec.min_items or (spec.max_items is not None and
+                                        len(values) > spec.max_items):
+        count = (str(spec.min_items) if spec.min_items == spec.max_items
+                 else f"{spec.min_items} or more")
+        entry.fail(spec.name, f"a list of {count} texts", raw)
+        return ()
+    if spec.unique and len(set(values)) != len(values):
+        entry.fail(spec.name, "a list without repeated items", raw)
+        return ()
+    return values
+
+
+def _read_label(entry: _Entry, spec: Field, raw: Any) -> str:
+    if isinstance(raw, bool) or not isinstance(raw, (str, int, float)) or not str(raw).strip():
+        entry.fail(spec.name, "a text or a number", raw)
+        return ""
+    return str(raw).strip()
+
+
+def _read_tfunction(entry: _Entry, spec: Field, raw: Any) -> act.TemperatureFunction:
+    """A dimensionless parameter: a number, or ``{a, b: '... K', c, d: '... 1/K'}``."""
+    if isinstance(raw, Mapping):
+        block = entry.child(spec.name)
+        assert block is not None
+        a = block.get("a")
+        if a is not None and math.isfinite(a) and not spec.within(a):
+            block.fail("a", f"a number {spec.bounds_text()}", a)
+        b, c, d = block.get("b"), block.get("c"), block.get("d")
+        block.finish()
+        return act.TemperatureFunction(a=_or0(a), b=_or0(b), c=_or0(c), d=_or0(d))
+    return act.TemperatureFunction(a=_or0(_read_number(entry, spec, raw)))
+
+
+def _or0(value: float | None) -> float:
+    return 0.0 if value is None or not math.isfinite(value) else float(value)
+
+
+def _read_range(entry: _Entry, spec: Field, raw: Any) -> tuple[float, float]:
+    if not isinstance(raw, list) or len(raw) != 2:
+        entry.fail(spec.name, _expected(spec), raw)
+        return math.nan, math.nan
+    low, high = (_convert(entry, spec, item) for item in raw)
+    if math.isfinite(low) and math.isfinite(high) and low >= high:
+        entry.fail(spec.name, "a lower then a higher temperature", raw)
+    return low, high
+
+
+def _read_quantities(entry: _Entry, spec: Field, raw: Any) -> tuple[float, ...]:
+    if not isinstance(raw, list):
+        entry.fail(spec.name, _expected(spec), raw)
+        return ()
+    return tuple(_convert(entry, spec, item) for item in raw)
+
+
+def _read_counts(entry: _Entry, spec: Field, raw: Any) -> Any:
+    """The mapping as written: its names are checked against the group tables by
+    :func:`builder.catalogue.groups.parse_groups`, which knows them."""
+    return raw
+
+
+def _read_block(entry: _Entry, spec: Field, raw: Any) -> _Entry | None:
+    return entry.child(spec.name)
+
+
+def _read_blocks(entry: _Entry, spec: Field, raw: Any) -> list[_Entry]:
+    return entry.children(spec.name)
+
+
+_READERS: dict[str, Callable[[_Entry, Field, Any], Any]] = {
+    "text": _read_text, "slug": _read_text, "number": _read_number, "integer": _read_number,
+    "quantity": _read_quantity, "coefficient": _read_coefficient, "choice": _read_choice,
+    "boolean": _read_boolean, "texts": _read_texts, "label": _read_label,
+    "tfunction": _read_tfunction, "range": _read_range, "quantities": _read_quantities,
+    "block": _read_block, "blocks": _read_blocks, "counts": _read_counts,
+}
+
+_EMPTY: dict[str, Any] = {
+    "text": "", "slug": "", "number": math.nan, "integer": math.nan, "quantity": math.nan,
+    "coefficient": math.nan, "choice": "", "texts": (), "label": "",
+    "tfunction": act.TemperatureFunction(), "range": (math.nan, math.nan), "quantities": (),
+}
+
+_PATTERN_TEXT = {
+    fields.CAS_PATTERN: "a CAS registry number such as '64-17-5' (2 to 7 digits not starting "
+                        "with 0, 2 digits, a check digit)",
+    fields.PAIR_ID_PATTERN: "two component ids joined by '--'",
+    fields.SLUG_PATTERN: "a slug of lower-case letters, digits and single hyphens",
+}
 
 
 def _show(value: Any) -> str:
@@ -221,47 +434,64 @@ def _show(value: Any) -> str:
 # ---------------------------------------------------------------------------
 
 
-def _source(entry: _Entry, name: str, references: Mapping[str, Reference],
-            required: bool = True) -> Source | None:
-    block = entry.child(name, ... if required else None)
+def _source(entry: _Entry, references: Mapping[str, Reference],
+            name: str = "source") -> Source | None:
+    block = entry.child(name)
     if block is None:
         return None
-    ref = block.slug("ref")
+    ref = block.get("ref")
     if ref and ref not in references:
         block.fail("ref", "the id of a file in references/", ref)
-    source = Source(
-        ref=ref,
-        where=block.text("where"),
-        note=block.text("note", ""),
-        from_memory=bool(block.boolean("from_memory", False)),
-    )
+    source = Source(ref=ref or "", where=block.get("where") or "", note=block.get("note") or "",
+                    from_memory=bool(block.get("from_memory")))
     block.finish()
     return source
 
 
+def _sourced(entry: _Entry, name: str, references: Mapping[str, Reference]
+             ) -> tuple[Any, Source | None]:
+    """A value written plainly or as ``{value: ..., source: {...}}``."""
+    raw = entry.data.get(name)
+    spec = entry.spec(name)
+    if not (spec.sourced and isinstance(raw, Mapping)):
+        return entry.get(name), None
+    entry.used.add(name)
+    block = Block(name, (_replace(spec, name="value", sourced=False),
+                         Field("source", "block", block=fields.SOURCE)))
+    sub = _Entry(entry.file, entry.entry, raw, entry.errors, block,
+                 prefix=f"{entry._path(name)}.")
+    value = sub.get("value")
+    source = _source(sub, references)
+    sub.finish()
+    return value, source
+
+
 def _vapour_pressure(entry: _Entry) -> VapourPressure | None:
-    equation = entry.choice("equation", ("antoine", "dippr101"))
-    T_min = entry.quantity("T_min", "temperature")
-    T_max = entry.quantity("T_max", "temperature")
+    equation = entry.get("equation")
+    T_min, T_max = entry.get("T_min"), entry.get("T_max")
     if math.isfinite(T_min) and math.isfinite(T_max) and T_min >= T_max:
         entry.fail("T_max", f"a temperature above T_min ({T_min:.2f} K)", f"{T_max:.2f} K")
-    P_unit = entry.choice("pressure_unit", ("Pa", "kPa", "bar", "mmHg", "atm", "MPa"))
-    A, B, C = entry.number("A"), entry.number("B"), entry.number("C")
+    P_unit = entry.get("pressure_unit")
+    A, B, C = entry.get("A"), entry.get("B"), entry.get("C")
+    vp: VapourPressure | None = None
     if equation == "antoine":
-        log = entry.choice("log", ("10", "e"))
-        T_unit = entry.choice("temperature_unit", ("K", "C"))
-        if not (entry.ok and log and T_unit and P_unit):
+        log, T_unit = entry.get("log"), entry.get("temperature_unit")
+        if entry.ok and log and T_unit and P_unit:
+            vp = Antoine.from_published(A, B, C, log_base="10" if log == "10" else "e",
+                                        P_unit=P_unit, T_unit="K" if T_unit == "K" else "C",
+                                        T_min_K=T_min, T_max_K=T_max)
+    elif equation == "dippr101":
+        D, E = entry.get("D"), entry.get("E")
+        if entry.ok and P_unit:
+            vp = ExtendedAntoine.from_published(A, B, C, D, E, P_unit=P_unit, T_min_K=T_min,
+                                                T_max_K=T_max)
+    if vp is not None:
+        problem = vapour_pressure_problem(vp)
+        if problem is not None:
+            entry.fail("", problem, f"A = {A:g}, B = {B:g}, C = {C:g} over "
+                       f"{T_min:.2f} K to {T_max:.2f} K")
             return None
-        return Antoine.from_published(A, B, C, log_base="10" if log == "10" else "e",
-                                      P_unit=P_unit, T_unit="K" if T_unit == "K" else "C",
-                                      T_min_K=T_min, T_max_K=T_max)
-    if equation == "dippr101":
-        D, E = entry.number("D"), entry.number("E")
-        if not (entry.ok and P_unit):
-            return None
-        return ExtendedAntoine.from_published(A, B, C, D, E, P_unit=P_unit, T_min_K=T_min,
-                                              T_max_K=T_max)
-    return None
+    return vp
 
 
 # ---------------------------------------------------------------------------
@@ -269,19 +499,16 @@ def _vapour_pressure(entry: _Entry) -> VapourPressure | None:
 # ---------------------------------------------------------------------------
 
 
-def _read_yaml(path: Path, root: Path, errors: list[CatalogueError]) -> Any:
+def _read_file(path: Path, root: Path, errors: list[CatalogueError]) -> tuple[bool, Any]:
     shown = _display(path, root)
     try:
-        with path.open(encoding="utf-8") as handle:
-            return yaml.safe_load(handle)
-    except yaml.YAMLError as error:
-        mark = getattr(error, "problem_mark", None)
-        where = f" at line {mark.line + 1}, column {mark.column + 1}" if mark else ""
-        errors.append(CatalogueError(shown, path.stem, "", "valid YAML",
-                                     f"a syntax error{where}: {getattr(error, 'problem', error)}"))
+        return True, read_yaml(path)
+    except ReadProblem as problem:
+        errors.append(CatalogueError(shown, path.stem, "", problem.expected, problem.found))
     except OSError as error:
-        errors.append(CatalogueError(shown, path.stem, "", "a readable file", str(error)))
-    return None
+        errors.append(CatalogueError(shown, path.stem, "", "a readable file",
+                                     error.strerror or str(error)))
+    return False, None
 
 
 def _display(path: Path, root: Path) -> str:
@@ -292,93 +519,70 @@ def _display(path: Path, root: Path) -> str:
 
 
 def _load_reference(entry: _Entry) -> Reference:
-    year = entry.number("year")
-    if math.isfinite(year) and not (1800 <= year <= 2100 and year == int(year)):
-        entry.fail("year", "a four-digit year", year)
+    year = entry.get("year")
     reference = Reference(
-        id=entry.slug("id"),
-        authors=entry.text("authors"),
-        title=entry.text("title"),
+        id=entry.get("id"),
+        authors=entry.get("authors"),
+        title=entry.get("title"),
         year=int(year) if math.isfinite(year) else 0,
-        kind=entry.choice("kind", ("book", "article", "database", "handbook", "standard",
-                                   "software")),
-        publisher=entry.text("publisher", ""),
-        journal=entry.text("journal", ""),
-        volume=str(entry.raw("volume", "")),
-        pages=str(entry.raw("pages", "")),
-        edition=entry.text("edition", ""),
-        doi=entry.text("doi", ""),
-        note=entry.text("note", ""),
+        kind=entry.get("kind"),
+        publisher=entry.get("publisher") or "",
+        journal=entry.get("journal") or "",
+        volume=entry.get("volume") or "",
+        pages=entry.get("pages") or "",
+        edition=entry.get("edition") or "",
+        doi=entry.get("doi") or "",
+        note=entry.get("note") or "",
     )
     entry.finish()
     return reference
 
 
-_CONSTANTS = {
-    "molar_mass": "molar_mass",
-    "normal_boiling_point": "temperature",
-    "critical_temperature": "temperature",
-    "critical_pressure": "pressure",
-    "liquid_molar_volume": "molar_volume",
-}
+_CONSTANTS = ("molar_mass", "normal_boiling_point", "critical_temperature",
+              "critical_pressure", "acentric_factor", "liquid_molar_volume")
 
 
 def _load_component(entry: _Entry, references: Mapping[str, Reference],
                     groups_folder: Path = DEFAULT_GROUPS) -> Component | None:
-    cid = entry.slug("id")
-    name = entry.text("name")
-    synonyms = entry.text_list("synonyms")
-    cas = entry.text("cas")
+    cid = entry.get("id")
+    name = entry.get("name")
+    synonyms = entry.get("synonyms") or ()
+    cas = entry.get("cas")
     if cas and not _valid_cas(cas):
         entry.fail("cas", "a CAS registry number with a valid check digit, such as '64-17-5'", cas)
-    formula = entry.text("formula")
+    formula = entry.get("formula")
     hazard_block = entry.child("hazard")
     hazard, hazard_source = "", None
     if hazard_block is not None:
-        hazard = hazard_block.text("summary")
-        hazard_source = _source(hazard_block, "source", references)
+        hazard = hazard_block.get("summary")
+        hazard_source = _source(hazard_block, references)
         hazard_block.finish()
 
     constants = entry.child("constants")
     values: dict[str, float] = {}
     sources: dict[str, Source] = {}
     if constants is not None:
-        default_source = _source(constants, "source", references)
-        for key, dimension in [*_CONSTANTS.items(), ("acentric_factor", "")]:
-            raw = constants.raw(key, expected="a value with a unit" if dimension else "a number")
-            own_source = None
-            if isinstance(raw, Mapping):
-                sub = constants.child(key)
-                assert sub is not None
-                raw = sub.raw("value")
-                own_source = _source(sub, "source", references)
-                sub.finish()
-            if raw is None:
-                continue
-            if dimension:
-                values[key] = constants.convert(key, raw, dimension)
-            elif isinstance(raw, (int, float)) and not isinstance(raw, bool):
-                values[key] = float(raw)
-            else:
-                constants.fail(key, "a plain number", raw)
+        default_source = _source(constants, references)
+        for key in _CONSTANTS:
+            value, own_source = _sourced(constants, key, references)
+            values[key] = math.nan if value is None else value
             chosen = own_source or default_source
             if chosen is not None:
                 sources[key] = chosen
         constants.finish()
 
-    uniquac = entry.child("uniquac", None)
+    uniquac = entry.child("uniquac")
     r = q = None
     uniquac_source = None
     if uniquac is not None:
-        r = uniquac.number("r", positive=True)
-        q = uniquac.number("q", positive=True)
-        uniquac_source = _source(uniquac, "source", references)
+        r, q = uniquac.get("r"), uniquac.get("q")
+        uniquac_source = _source(uniquac, references)
         uniquac.finish()
 
-    groups_block = entry.child("groups", None)
+    groups_block = entry.child("groups")
     groups = None
     if groups_block is not None:
-        groups = parse_groups(groups_block, lambda b: _source(b, "source", references),
+        groups = parse_groups(groups_block, lambda b: _source(b, references),
                               lambda v: group_tables(v, groups_folder), formula,
                               values.get("molar_mass", math.nan))
 
@@ -386,7 +590,7 @@ def _load_component(entry: _Entry, references: Mapping[str, Reference],
     vapour_pressure = vp_source = None
     if vp_block is not None:
         vapour_pressure = _vapour_pressure(vp_block)
-        vp_source = _source(vp_block, "source", references)
+        vp_source = _source(vp_block, references)
         vp_block.finish()
     entry.finish()
 
@@ -397,6 +601,19 @@ def _load_component(entry: _Entry, references: Mapping[str, Reference],
         entry.fail("constants.normal_boiling_point",
                    f"a temperature below the critical temperature ({Tc:.2f} K)", f"{Tb:.2f} K")
         return None
+    # 1 K of slack: a correlation's range and the critical constant often come from
+    # different sources, each rounded (styrene: 636 K against 635.2 K).
+    if vapour_pressure.T_max_K > Tc + 1.0:
+        entry.fail("vapour_pressure.T_max", f"a temperature at most the critical temperature "
+                   f"({Tc:.2f} K)", f"{vapour_pressure.T_max_K:.2f} K")
+        return None
+    if vapour_pressure.T_min_K <= Tb <= vapour_pressure.T_max_K:
+        P_at_Tb = float(vapour_pressure.pressure_Pa(Tb))
+        if not 0.5 * 101325.0 <= P_at_Tb <= 2.0 * 101325.0:
+            entry.fail("vapour_pressure", "a correlation giving about 101.325 kPa at the normal "
+                       f"boiling point {Tb:.2f} K (are the units right?)",
+                       f"{P_at_Tb / 1e3:.4g} kPa")
+            return None
     return Component(
         id=cid, name=name, synonyms=synonyms, cas=cas, formula=formula,
         molar_mass_kg_per_mol=values["molar_mass"],
@@ -415,12 +632,12 @@ def _load_component(entry: _Entry, references: Mapping[str, Reference],
 def _valid_cas(cas: str) -> bool:
     """CAS numbers end in a check digit: the weighted digit sum mod 10.
 
-    >>> _valid_cas("64-17-5"), _valid_cas("64-17-6")
-    (True, False)
+    >>> _valid_cas("64-17-5"), _valid_cas("64-17-6"), _valid_cas("00-00-0")
+    (True, False, False)
     """
-    parts = cas.split("-")
-    if len(parts) != 3 or not all(p.isdigit() for p in parts) or len(parts[2]) != 1:
+    if not re.match(fields.CAS_PATTERN, cas):
         return False
+    parts = cas.split("-")
     digits = (parts[0] + parts[1])[::-1]
     total = sum((i + 1) * int(d) for i, d in enumerate(digits))
     return total % 10 == int(parts[2])
@@ -429,130 +646,77 @@ def _valid_cas(cas: str) -> bool:
 # -- activity parameters -----------------------------------------------------
 
 
-def _temperature_function(entry: _Entry, name: str) -> act.TemperatureFunction:
-    """A dimensionless parameter: a number, or ``{a, b: '... K', c, d: '... 1/K'}``."""
-    raw = entry.raw(name, expected="a number or a mapping of a, b, c, d")
-    if raw is None:
-        return act.TemperatureFunction()
-    if isinstance(raw, (int, float)) and not isinstance(raw, bool):
-        return act.TemperatureFunction(a=float(raw))
-    block = entry.child(name)
-    assert block is not None
-    a = block.number("a", 0.0)
-    b = _kelvin(block, "b", block.raw("b")) if block.has("b") else 0.0
-    c = block.number("c", 0.0)
-    d = 0.0
-    if block.has("d"):
-        d_raw = block.raw("d")
-        d = _per_kelvin(block, "d", d_raw)
-    block.finish()
-    return act.TemperatureFunction(a=a, b=b, c=c, d=d)
-
-
-def _coefficient(entry: _Entry, name: str, raw: Any, unit: str, example: str) -> float:
-    """A signed coefficient that must carry exactly ``unit`` (K or 1/K)."""
-    if isinstance(raw, str):
-        try:
-            number, found = split_quantity(raw)
-        except UnitError:
-            found = ""
-        if found == unit:
-            return number
-    entry.fail(name, f"a coefficient with the unit {unit}, such as {example!r}", raw)
-    return 0.0
-
-
-def _kelvin(entry: _Entry, name: str, raw: Any) -> float:
-    return _coefficient(entry, name, raw, "K", "-103.3 K")
-
-
-def _per_kelvin(entry: _Entry, name: str, raw: Any) -> float:
-    return _coefficient(entry, name, raw, "1/K", "-0.00523 1/K")
-
-
 def _energy_over_R(entry: _Entry, name: str) -> float:
     """An interaction energy in J/mol, cal/mol or K, returned as energy/R in K."""
-    return entry.quantity(name, "molar_energy") / GAS_CONSTANT_J_PER_MOL_K
+    value = entry.get(name)
+    return math.nan if value is None else value / GAS_CONSTANT_J_PER_MOL_K
 
 
-def _pick(entry: _Entry, energy: tuple[str, str], direct: tuple[str, str],
-          fail: Callable[[str], None]) -> str:
-    has_energy = entry.has(energy[0]) or entry.has(energy[1])
-    has_direct = entry.has(direct[0]) or entry.has(direct[1])
-    if has_energy == has_direct:
-        fail(f"either {energy[0]}/{energy[1]} (interaction energies with units) or "
-             f"{direct[0]}/{direct[1]} (dimensionless temperature functions), not both")
-        return ""
-    return "energy" if has_energy else "direct"
+def _form(entry: _Entry) -> int:
+    """Which of the block's alternative groups is given (-1: none or several; reported)."""
+    given = [i for i, group in enumerate(entry.block.one_of)
+             if any(entry.has(name) for name in group)]
+    return given[0] if len(given) == 1 else -1
 
 
-def _build_margules(entry: _Entry, c1: Component, c2: Component,
-                    fail: Callable[[str], None]) -> act.ActivityModel:
-    return act.Margules(_temperature_function(entry, "A12"), _temperature_function(entry, "A21"))
+def _tf(entry: _Entry, name: str) -> act.TemperatureFunction:
+    value = entry.get(name)
+    return value if isinstance(value, act.TemperatureFunction) else act.TemperatureFunction()
 
 
-def _build_van_laar(entry: _Entry, c1: Component, c2: Component,
-                    fail: Callable[[str], None]) -> act.ActivityModel:
-    A12, A21 = _temperature_function(entry, "A12"), _temperature_function(entry, "A21")
+def _build_margules(entry: _Entry, c1: Component, c2: Component) -> act.ActivityModel:
+    return act.Margules(_tf(entry, "A12"), _tf(entry, "A21"))
+
+
+def _build_van_laar(entry: _Entry, c1: Component, c2: Component) -> act.ActivityModel:
+    A12, A21 = _tf(entry, "A12"), _tf(entry, "A21")
     if A12.a * A21.a < 0 and not (A12.b or A21.b):
         entry.fail("A21", "the same sign as A12 (van Laar is singular otherwise)", A21.a)
     return act.VanLaar(A12, A21)
 
 
-def _build_wilson(entry: _Entry, c1: Component, c2: Component,
-                  fail: Callable[[str], None]) -> act.ActivityModel | None:
-    form = _pick(entry, ("lambda12", "lambda21"), ("ln_Lambda12", "ln_Lambda21"), fail)
-    if form == "energy":
+def _build_wilson(entry: _Entry, c1: Component, c2: Component) -> act.ActivityModel | None:
+    form = _form(entry)
+    if form == 0:
         # Λ12 = (V2/V1) exp(-Δλ12/RT), Λ21 = (V1/V2) exp(-Δλ21/RT)
         ratio = math.log(c2.liquid_molar_volume_m3_per_mol / c1.liquid_molar_volume_m3_per_mol)
         return act.Wilson(act.TemperatureFunction(a=ratio, b=-_energy_over_R(entry, "lambda12")),
                           act.TemperatureFunction(a=-ratio, b=-_energy_over_R(entry, "lambda21")))
-    if form == "direct":
-        return act.Wilson(_temperature_function(entry, "ln_Lambda12"),
-                          _temperature_function(entry, "ln_Lambda21"))
+    if form == 1:
+        return act.Wilson(_tf(entry, "ln_Lambda12"), _tf(entry, "ln_Lambda21"))
     return None
 
 
-def _build_nrtl(entry: _Entry, c1: Component, c2: Component,
-                fail: Callable[[str], None]) -> act.ActivityModel | None:
-    form = _pick(entry, ("g12", "g21"), ("tau12", "tau21"), fail)
-    alpha = _temperature_function(entry, "alpha")
-    if not (0.0 <= alpha.a <= 1.0):
-        entry.fail("alpha", "a non-randomness α between 0 and 1", alpha.a)
-    if form == "energy":
+def _build_nrtl(entry: _Entry, c1: Component, c2: Component) -> act.ActivityModel | None:
+    form = _form(entry)
+    alpha = _tf(entry, "alpha")
+    if form == 0:
         return act.NRTL(act.TemperatureFunction(b=_energy_over_R(entry, "g12")),
                         act.TemperatureFunction(b=_energy_over_R(entry, "g21")), alpha)
-    if form == "direct":
-        return act.NRTL(_temperature_function(entry, "tau12"),
-                        _temperature_function(entry, "tau21"), alpha)
+    if form == 1:
+        return act.NRTL(_tf(entry, "tau12"), _tf(entry, "tau21"), alpha)
     return None
 
 
-def _build_uniquac(entry: _Entry, c1: Component, c2: Component,
-                   fail: Callable[[str], None]) -> act.ActivityModel | None:
-    missing = [c.id for c in (c1, c2) if c.uniquac_r is None or c.uniquac_q is None]
-    if missing:
-        fail("components with UNIQUAC r and q; missing for " + ", ".join(missing))
-        return None
-    form = _pick(entry, ("u12", "u21"), ("ln_tau12", "ln_tau21"), fail)
-    if form == "energy":
+def _build_uniquac(entry: _Entry, c1: Component, c2: Component) -> act.ActivityModel | None:
+    form = _form(entry)
+    if form == 0:
         ln12 = act.TemperatureFunction(b=-_energy_over_R(entry, "u12"))
         ln21 = act.TemperatureFunction(b=-_energy_over_R(entry, "u21"))
-    elif form == "direct":
-        ln12 = _temperature_function(entry, "ln_tau12")
-        ln21 = _temperature_function(entry, "ln_tau21")
+    elif form == 1:
+        ln12, ln21 = _tf(entry, "ln_tau12"), _tf(entry, "ln_tau21")
     else:
         return None
-    assert c1.uniquac_r and c1.uniquac_q and c2.uniquac_r and c2.uniquac_q
+    if not (c1.uniquac_r and c1.uniquac_q and c2.uniquac_r and c2.uniquac_q):
+        return None  # reported once, at the component (see load_catalogue)
     return act.UNIQUAC(ln12, ln21, c1.uniquac_r, c2.uniquac_r, c1.uniquac_q, c2.uniquac_q)
 
 
-def _build_ideal(entry: _Entry, c1: Component, c2: Component,
-                 fail: Callable[[str], None]) -> act.ActivityModel:
+def _build_ideal(entry: _Entry, c1: Component, c2: Component) -> act.ActivityModel:
     return act.Ideal()
 
 
-_MODELS: dict[str, Callable[..., act.ActivityModel | None]] = {
+_MODELS: dict[str, Callable[[_Entry, Component, Component], act.ActivityModel | None]] = {
     "ideal": _build_ideal,
     "margules": _build_margules,
     "van-laar": _build_van_laar,
@@ -562,13 +726,40 @@ _MODELS: dict[str, Callable[..., act.ActivityModel | None]] = {
 }
 
 
+def _typed_parameters(params: _Entry) -> dict[str, float | dict[str, float]]:
+    """The published parameters as numbers (SI, or the unit in the key), for ``atlas.json``."""
+    out: dict[str, float | dict[str, float]] = {}
+    units = {"b": "b_K", "d": "d_per_K"}
+    for name, raw in params.data.items():
+        if raw is None or name not in params.block.all_fields(params.variant):
+            continue
+        spec = params.spec(name)
+        try:
+            if spec.kind == "quantity":
+                number, unit = split_quantity(str(raw))
+                out[f"{name}_{SI_UNIT[spec.dimension].replace('/', '_per_')}"] = to_si(
+                    number, unit, spec.dimension)
+            elif isinstance(raw, Mapping):
+                out[str(name)] = {units.get(str(k), str(k)): (
+                    split_quantity(str(v))[0] if isinstance(v, str) else float(v))
+                    for k, v in raw.items() if v is not None}
+            elif isinstance(raw, (int, float)) and not isinstance(raw, bool):
+                out[str(name)] = float(raw)
+        except (UnitError, ValueError, TypeError):
+            continue  # already reported by the loader
+    return out
+
+
+def _missing_uniquac(components: Mapping[str, Component], ids: Iterable[str]) -> list[str]:
+    return [cid for cid in ids if cid in components and (
+        components[cid].uniquac_r is None or components[cid].uniquac_q is None)]
+
+
 def _load_pair(entry: _Entry, components: Mapping[str, Component],
-               references: Mapping[str, Reference], broken: set[str]) -> PairRecord | None:
-    pid = entry.text("id")
-    ids: tuple[str, ...] = entry.text_list("components")
-    if len(ids) != 2 or ids[0] == ids[1]:
-        entry.fail("components", "two different component ids", list(ids))
-        ids = ()
+               references: Mapping[str, Reference], broken: set[str],
+               needs_uniquac: dict[str, list[str]]) -> PairRecord | None:
+    pid = entry.get("id")
+    ids: tuple[str, ...] = entry.get("components")
     if any(cid in broken for cid in ids):
         # The component's own errors are reported; the pair is not loaded.
         entry.used.update(entry.data)
@@ -576,9 +767,10 @@ def _load_pair(entry: _Entry, components: Mapping[str, Component],
     for cid in ids:
         if cid not in components:
             entry.fail("components", "ids of files in components/", cid)
-    if pid and ids and pid != PAIR_SEPARATOR.join(ids):
+    if pid and len(ids) == 2 and pid != PAIR_SEPARATOR.join(ids):
         entry.fail("id", f"the two component ids joined by '{PAIR_SEPARATOR}' "
                    f"({PAIR_SEPARATOR.join(ids)!r})", pid)
+    known = len(ids) == 2 and all(c in components for c in ids)
 
     model_block = entry.child("activity")
     model = None
@@ -587,42 +779,55 @@ def _load_pair(entry: _Entry, components: Mapping[str, Component],
     source: Source | None = None
     quality = ""
     published: dict[str, str] = {}
+    typed: dict[str, float | dict[str, float]] = {}
+    uniquac_missing: list[str] = []
     if model_block is not None:
-        kind = model_block.choice("model", tuple(_MODELS))
-        params = model_block.child("parameters", {} if kind == "ideal" else ...)
-        T_range = model_block.raw("T_range", expected="a list of two temperatures")
-        if isinstance(T_range, list) and len(T_range) == 2:
-            T_min = model_block.convert("T_range", T_range[0], "temperature")
-            T_max = model_block.convert("T_range", T_range[1], "temperature")
-            if T_min >= T_max:
-                model_block.fail("T_range", "a lower then a higher temperature", T_range)
-        elif T_range is not None:
-            model_block.fail("T_range", "a list of two temperatures, such as ['50 C', '100 C']",
-                             T_range)
-        source = _source(model_block, "source", references)
-        quality = model_block.choice("quality", tuple(QUALITIES))
-        model_block.finish()
-        if params is not None and kind and all(c in components for c in ids) and ids:
+        kind = model_block.get("model")
+        T_min, T_max = model_block.get("T_range")
+        source = _source(model_block, references)
+        quality = model_block.get("quality")
+        params = model_block.child("parameters") if kind else None
+        if not kind:
+            model_block.used.add("parameters")
+        if params is not None and kind and known:
             published = {str(k): str(v) for k, v in params.data.items()}
-
-            def fail(expected: str, _block: _Entry = params) -> None:
-                _block.fail("", expected, sorted(_block.data))
-
-            model = _MODELS[kind](params, components[ids[0]], components[ids[1]], fail)
+            typed = _typed_parameters(params)
+            uniquac_missing = (_missing_uniquac(components, ids) if kind == "uniquac" else [])
+            model = _MODELS[kind](params, components[ids[0]], components[ids[1]])
             params.finish()
+        elif kind == "ideal" and known:
+            model = act.Ideal()
+        model_block.finish()
+        if (model is not None and entry.ok and math.isfinite(T_min) and math.isfinite(T_max)):
+            problem = model_problem(model, T_min, T_max)
+            if problem is not None:
+                model_block.fail("parameters", problem, published)
+                model = None
+    for cid in uniquac_missing:
+        needs_uniquac.setdefault(cid, []).append(pid or entry.entry)
 
-    publish = entry.child("publish", {})
+    publish = entry.child("publish")
     isobars: tuple[float, ...] = (101325.0,)
     isotherms: tuple[float, ...] = ()
     if publish is not None:
-        isobars = _quantity_list(publish, "isobars", "pressure", [101325.0])
-        isotherms = _quantity_list(publish, "isotherms", "temperature", [])
+        given_P = publish.get("isobars")
+        given_T = publish.get("isotherms")
+        isobars = given_P if given_P is not None else isobars
+        isotherms = given_T or ()
+        if not isobars and not isotherms:
+            publish.fail("", "at least one isobar or isotherm to publish", dict(publish.data))
+        if known and isotherms:
+            Tc = max(components[c].critical_temperature_K for c in ids)
+            for T in isotherms:
+                if math.isfinite(T) and T >= Tc:
+                    publish.fail("isotherms", f"temperatures below the higher critical "
+                                 f"temperature of the two components ({Tc:.2f} K)", f"{T:.2f} K")
         publish.finish()
 
     recorded = _recorded(entry, references)
     split = _split(entry)
-    notes = entry.text("notes", "")
-    tags = entry.text_list("tags")
+    notes = entry.get("notes") or ""
+    tags = entry.get("tags") or ()
     entry.finish()
     if not entry.ok or model is None or source is None or len(ids) != 2:
         return None
@@ -631,18 +836,17 @@ def _load_pair(entry: _Entry, components: Mapping[str, Component],
         id=pid, component1=first, component2=second, model=model, model_kind=kind,
         published_parameters=published, T_min_K=T_min, T_max_K=T_max, source=source,
         quality=quality, isobars_Pa=isobars, isotherms_K=isotherms, recorded=recorded,
-        notes=notes, file=entry.file, tags=tags, split_x1=split,
+        notes=notes, file=entry.file, tags=tags, split_x1=split, parameters=typed,
     )
 
 
 def _split(entry: _Entry) -> tuple[float, float, float] | None:
-    block = entry.child("split", None)
+    block = entry.child("split")
     if block is None:
         return None
-    values = tuple(block.number(k) for k in ("distillate_x1", "bottoms_x1", "feed_x1"))
+    values = tuple(block.get(k) for k in ("distillate_x1", "bottoms_x1", "feed_x1"))
     block.finish()
-    if not all(0.0 < v < 1.0 for v in values):
-        entry.fail("split", "mole fractions strictly between 0 and 1", list(values))
+    if not all(math.isfinite(v) for v in values):
         return None
     D, B, F = values
     if not (min(D, B) < F < max(D, B)):
@@ -651,42 +855,23 @@ def _split(entry: _Entry) -> tuple[float, float, float] | None:
     return D, B, F
 
 
-def _quantity_list(entry: _Entry, name: str, dimension: str, default: list[float]
-                   ) -> tuple[float, ...]:
-    raw = entry.raw(name, default)
-    if not isinstance(raw, list):
-        entry.fail(name, f"a list of {dimension}s with units", raw)
-        return ()
-    if raw is default:
-        return tuple(default)
-    return tuple(entry.convert(name, item, dimension) for item in raw)
-
-
 def _recorded(entry: _Entry, references: Mapping[str, Reference]) -> RecordedBehaviour | None:
-    block = entry.child("recorded", None)
+    block = entry.child("recorded")
     if block is None:
         return None
     azeotropes: list[RecordedAzeotrope] = []
-    raw_list = block.raw("azeotropes", [])
-    if not isinstance(raw_list, list):
-        block.fail("azeotropes", "a list of azeotropes", raw_list)
-        raw_list = []
-    for index, item in enumerate(raw_list):
-        az = _Entry(entry.file, entry.entry, item, entry.errors,
-                    prefix=f"{block.prefix}azeotropes[{index}].")
-        P = az.quantity("P", "pressure")
-        T_az = az.quantity("T", "temperature") if az.has("T") else None
-        x1 = az.number("x1", None) if az.has("x1") else None
-        if x1 is not None and not (0.0 < x1 < 1.0):
-            az.fail("x1", "a mole fraction strictly between 0 and 1", x1)
-        kind = az.choice("kind", AZEOTROPE_KINDS)
-        src = _source(az, "source", references)
+    for az in block.children("azeotropes"):
+        P = az.get("P")
+        T_az = az.get("T")
+        x1 = az.get("x1")
+        kind = az.get("kind")
+        src = _source(az, references)
         az.finish()
-        if src is not None:
+        if src is not None and az.ok:
             azeotropes.append(RecordedAzeotrope(P_Pa=P, T_K=T_az, x1=x1, kind=kind, source=src))
-    zeotropic = _quantity_list(block, "zeotropic_at", "pressure", [])
-    split = block.boolean("liquid_split", None)
-    source = _source(block, "source", references, required=False)
+    zeotropic = block.get("zeotropic_at") or ()
+    split = block.get("liquid_split")
+    source = _source(block, references)
     block.finish()
     return RecordedBehaviour(tuple(azeotropes), zeotropic, split, source)
 
@@ -723,11 +908,15 @@ def _files(folder: Path) -> list[Path]:
     return sorted(folder.glob("*.yaml")) if folder.is_dir() else []
 
 
-def load_catalogue(root: Path | str = DEFAULT_CATALOGUE, only: Iterable[str] = ()) -> Catalogue:
+def load_catalogue(root: Path | str = DEFAULT_CATALOGUE, only: Iterable[str] = (),
+                   problems: list[CatalogueError] | None = None) -> Catalogue:
     """Read, validate and convert a catalogue folder; raise :class:`CatalogueErrors`.
 
     ``only`` restricts the pairs loaded to the given pair ids (components and
-    references are always loaded in full, since pairs refer to them).
+    references are always loaded in full, since pairs refer to them).  With
+    ``problems`` (a list), nothing is raised: every problem is appended there and
+    the catalogue holds whatever loaded cleanly (``atlas check`` reports the broken
+    files and still checks the others).
     """
     root = Path(root)
     errors: list[CatalogueError] = []
@@ -735,16 +924,25 @@ def load_catalogue(root: Path | str = DEFAULT_CATALOGUE, only: Iterable[str] = (
         raise CatalogueErrors([CatalogueError(str(root), "", "", "a catalogue folder with "
                                               "references/, components/ and binaries/",
                                               "no such folder")])
+    wanted = set(only)
 
     def load_all(folder: str, loader: Callable[[_Entry], T | None]) -> dict[str, T]:
         out: dict[str, T] = {}
         for path in _files(root / folder):
-            data = _read_yaml(path, root, errors)
-            if data is None and errors and errors[-1].file == _display(path, root):
+            if folder == "binaries" and wanted and path.stem not in wanted:
+                continue
+            read, data = _read_file(path, root, errors)
+            if not read:
                 continue
             entry_name = data.get("id", path.stem) if isinstance(data, Mapping) else path.stem
-            entry = _Entry(_display(path, root), str(entry_name), data, errors)
-            record = loader(entry)
+            entry = _Entry(_display(path, root), _show_id(entry_name, path), data, errors,
+                           fields.BLOCKS[folder])
+            try:
+                record = loader(entry)
+            except (ArithmeticError, ValueError) as error:  # a defect the checks above missed
+                entry.fail("", "an entry the loader can evaluate", f"{type(error).__name__}: "
+                           f"{error}")
+                record = None
             if record is None:
                 continue
             rid = str(getattr(record, "id"))  # noqa: B009 - every record kind has an id
@@ -760,18 +958,45 @@ def load_catalogue(root: Path | str = DEFAULT_CATALOGUE, only: Iterable[str] = (
     groups_folder = root / "groups" if (root / "groups").is_dir() else DEFAULT_GROUPS
     components = load_all("components", lambda e: _load_component(e, references, groups_folder))
     broken = {p.stem for p in _files(root / "components")} - set(components)
-    wanted = set(only)
-    pairs = load_all("binaries", lambda e: _load_pair(e, components, references, broken))
+    needs_uniquac: dict[str, list[str]] = {}
+    pairs = load_all("binaries", lambda e: _load_pair(e, components, references, broken,
+                                                       needs_uniquac))
+    for cid, users in sorted(needs_uniquac.items()):
+        component = components[cid]
+        errors.append(CatalogueError(component.file, cid, "uniquac", "UNIQUAC r and q (needed "
+                                     "by the UNIQUAC pair" + ("s " if len(users) > 1 else " ")
+                                     + ", ".join(users) + ")", "no uniquac block"))
+    _check_reversed_pairs(pairs, errors)
     if wanted:
-        unknown = wanted - set(pairs)
-        for name in sorted(unknown):
+        present = {p.stem for p in _files(root / "binaries")}
+        for name in sorted(wanted - present):
             errors.append(CatalogueError(str(root / "binaries"), name, "", "a pair in the "
                                          "catalogue", "no such pair file"))
         pairs = {k: v for k, v in pairs.items() if k in wanted}
     _check_names_unique(components, errors)
-    if errors:
+    if problems is not None:
+        problems.extend(errors)
+        broken_files = {e.file for e in errors}
+        pairs = {k: v for k, v in pairs.items() if v.file not in broken_files}
+    elif errors:
         raise CatalogueErrors(errors)
     return Catalogue(root=root, references=references, components=components, pairs=pairs)
+
+
+def _show_id(value: Any, path: Path) -> str:
+    return value.strip() if isinstance(value, str) and value.strip() else path.stem
+
+
+def _check_reversed_pairs(pairs: Mapping[str, PairRecord], errors: list[CatalogueError]) -> None:
+    """One file per pair: ``b--a`` beside ``a--b`` is the same pair twice."""
+    for pid in sorted(pairs):
+        pair = pairs[pid]
+        reverse = f"{pair.component2}{PAIR_SEPARATOR}{pair.component1}"
+        if reverse in pairs and reverse < pid:
+            errors.append(CatalogueError(pair.file, pid, "components", "a pair not already in "
+                                         f"the catalogue (it is, the other way round, in "
+                                         f"{pairs[reverse].file})",
+                                         f"[{pair.component1}, {pair.component2}]"))
 
 
 def _check_names_unique(components: Mapping[str, Component], errors: list[CatalogueError]) -> None:

@@ -181,6 +181,10 @@ class PairRecord:
     notes: str = ""
     file: str = ""
     tags: tuple[str, ...] = field(default=())
+    #: The published parameters as numbers, in SI or with the unit in the key: an energy
+    #: ``g12_J_per_mol``, a temperature function ``{"a": ..., "b_K": ..., "c": ...,
+    #: "d_per_K": ...}``, a plain dimensionless value as a number.
+    parameters: dict[str, float | dict[str, float]] = field(default_factory=dict)
     #: Optional split for the distillation quick look: mole fractions of component 1 in
     #: distillate, bottoms and a saturated-liquid feed.  None: 95/5 % of the lighter one.
     split_x1: tuple[float, float, float] | None = None

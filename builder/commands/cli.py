@@ -20,9 +20,10 @@ from typing import Any
 from builder.analysis import point
 from builder.catalogue.loader import DEFAULT_CATALOGUE, Catalogue, load_catalogue
 from builder.catalogue.lookup import MODEL_CHOICES
-from builder.commands import report
+from builder.commands import authoring, report
+from builder.commands import diff as diff_command
 from builder.commands import site as site_commands
-from builder.errors import AtlasError
+from builder.errors import AtlasError, CatalogueError
 from builder.thermo.units import UnitError, format_pressure, format_temperature, parse_quantity
 
 __all__ = ["main"]
@@ -109,6 +110,8 @@ def _parser() -> argparse.ArgumentParser:
     listing = commands.add_parser("list", help="the catalogued components and pairs")
     listing.add_argument("--json", action="store_true", help="print JSON")
     site_commands.add_parsers(commands)
+    authoring.add_parsers(commands)
+    diff_command.add_parsers(commands)
     return parser
 
 
@@ -181,10 +184,12 @@ def _check(args: argparse.Namespace) -> int:
     from builder.analysis import catalogue_checks as catalogue_check
 
     only = [path.stem for path in args.files]
-    catalogue = load_catalogue(args.catalogue, only=only)
+    problems: list[CatalogueError] = []
+    catalogue = load_catalogue(args.catalogue, only=only, problems=problems)
     print(f"catalogue {args.catalogue}: {len(catalogue.references)} references, "
-          f"{len(catalogue.components)} components, {len(catalogue.pairs)} pairs: loaded")
-    run = catalogue_check.run_checks(catalogue)
+          f"{len(catalogue.components)} components, {len(catalogue.pairs)} pairs: loaded"
+          + (f"; {len(problems)} problem(s) in files that did not load" if problems else ""))
+    run = catalogue_check.run_checks(catalogue, [str(p) for p in problems])
     failures = run.failures
     for line in failures:
         print(f"FAIL {line}")
@@ -223,6 +228,10 @@ def main(argv: Sequence[str] | None = None) -> int:
     try:
         if args.command in site_commands.COMMANDS:
             return site_commands.run(args)
+        if args.command in authoring.COMMANDS:
+            return authoring.run(args)
+        if args.command in diff_command.COMMANDS:
+            return diff_command.run(args)
         if args.command == "check":
             return _check(args)
         catalogue = load_catalogue(args.catalogue)

@@ -33,6 +33,9 @@ def add_parsers(commands: Any) -> None:
                        help="keep the generated Markdown, figures and mkdocs.yml in DIR")
     build.add_argument("--workers", type=int, default=None,
                        help="processes for the figures (default: up to 4)")
+    build.add_argument("--allow-failed-checks", action="store_true",
+                       help="also publish parameter sets that fail their reference checks, "
+                            "each with a banner on its page (default: such sets are withheld)")
     preview = commands.add_parser("serve", help="preview a built atlas on 127.0.0.1",
                                   description="Serve a built site over HTTP on the loopback "
                                               "interface for a local preview.")
@@ -52,6 +55,7 @@ def run(args: argparse.Namespace) -> int:
         report = build_site(args.catalogue, args.out, settings_file=args.settings,
                             strict=args.strict, source_dir=args.keep_source, only=args.only,
                             workers=args.workers,
+                            allow_failed_checks=args.allow_failed_checks,
                             progress=lambda line: print(line, flush=True))
         for warning in report.warnings:
             print(f"warning: {warning}", file=sys.stderr)

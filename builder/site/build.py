@@ -17,9 +17,10 @@ from __future__ import annotations
 import tempfile
 import time
 from collections.abc import Callable, Iterable
-from dataclasses import dataclass, field
+from dataclasses import dataclass, field, replace
 from pathlib import Path
 
+from builder.analysis.catalogue_checks import failed_sets
 from builder.analysis.results import compute_atlas, compute_pair
 from builder.analysis.second_opinion import second_opinions
 from builder.catalogue.loader import DEFAULT_CATALOGUE, load_catalogue
@@ -51,11 +52,22 @@ class BuildReport:
     timings_s: dict[str, float] = field(default_factory=dict)
     warnings: list[str] = field(default_factory=list)
     external_links: int = 0
+    #: Pairs not published because they fail their checks (pair id -> failures).
+    withheld: dict[str, list[str]] = field(default_factory=dict)
+    #: Pairs published with a banner despite failed checks (``allow_failed_checks``).
+    published_failing: dict[str, list[str]] = field(default_factory=dict)
 
     def summary(self) -> str:
         stages = ", ".join(f"{k} {v:.1f} s" for k, v in self.timings_s.items())
+        notes = ""
+        if self.withheld:
+            notes += (f"Not published (failed checks; see 'atlas check'): "
+                      f"{', '.join(sorted(self.withheld))}.\n")
+        if self.published_failing:
+            notes += (f"Published with a failed-checks banner: "
+                      f"{', '.join(sorted(self.published_failing))}.\n")
         index = self.out_dir / "index.html"
-        return (f"Built the atlas: {self.pairs} pairs, {self.components} components, "
+        return notes + (f"Built the atlas: {self.pairs} pairs, {self.components} components, "
                 f"{self.pages} pages, {self.files} files, {self.size_bytes / 1e6:.1f} MB in "
                 f"{sum(self.timings_s.values()):.1f} s ({stages}).\n"
                 f"Open {index.as_uri()} in a browser (no server needed), or run "
@@ -65,7 +77,7 @@ class BuildReport:
 def build_site(catalogue_dir: Path | str = DEFAULT_CATALOGUE, out_dir: Path | str = DEFAULT_OUTPUT,
                *, settings_file: Path | str | None = None, strict: bool = False,
                source_dir: Path | str | None = None, only: Iterable[str] = (),
-               workers: int | None = None,
+               workers: int | None = None, allow_failed_checks: bool = False,
                progress: Callable[[str], None] | None = None) -> BuildReport:
     """Build the site from ``catalogue_dir`` into ``out_dir``; raise on any failure."""
     out = Path(out_dir).resolve()
@@ -83,6 +95,18 @@ def build_site(catalogue_dir: Path | str = DEFAULT_CATALOGUE, out_dir: Path | st
     stage("load", t)
     t = time.perf_counter()
     atlas = compute_atlas(catalogue)
+    failed = failed_sets(catalogue, atlas)
+    if failed and not allow_failed_checks:
+        # The same validation as `atlas check`: a set that fails its checks is withheld.
+        atlas = {pid: r for pid, r in atlas.items() if pid not in failed}
+        catalogue = replace(catalogue, pairs={pid: p for pid, p in catalogue.pairs.items()
+                                              if pid not in failed})
+        report.withheld = failed
+    elif failed:
+        report.published_failing = failed
+    if not atlas:
+        raise BuildFailure("no pair passes its checks; nothing to publish:\n" + "\n".join(
+            f"  - {line}" for lines in failed.values() for line in lines))
     stage("compute", t)
     t = time.perf_counter()
     selection = select_predicted(catalogue, settings.predicted_pairs)

@@ -2,10 +2,10 @@
 
 Nothing here computes thermodynamics: every number is read from
 :mod:`builder.results` (and the catalogue records) and formatted in the units
-of the site settings.  Results grow new fields over time (the liquid-liquid
-analysis, the distillation quick look, the azeotrope trace, the checks);
-:func:`optional` is the one place that reads such a field, so that a page is
-still made, without that section, from results that do not carry it.
+of the site settings.  The results are one typed record
+(:mod:`builder.analysis.record`) whose every field exists; a section is left out
+where its field is ``None`` by its documented meaning (no liquid split, no quick
+look on an isotherm, no azeotrope to trace).
 
 The views hold plain strings and numbers, never markup: the templates escape
 every value (:mod:`.text`).
@@ -16,11 +16,11 @@ from __future__ import annotations
 import math
 from collections.abc import Iterable, Sequence
 from dataclasses import dataclass, field
-from typing import Any
 
 import numpy as np
 from numpy.typing import NDArray
 
+from builder.analysis.distillation import Split
 from builder.analysis.results import ConditionResult, PairResults
 from builder.catalogue.loader import QUALITIES, Catalogue
 from builder.catalogue.records import Component, PairRecord, Source
@@ -36,13 +36,7 @@ __all__ = [
     "IndexRow",
     "PairView",
     "build_views",
-    "optional",
 ]
-
-
-def optional(obj: object, name: str) -> Any:
-    """A result field that may not exist yet, or ``None`` (the section is then left out)."""
-    return getattr(obj, name, None)
 
 
 #: Behaviour at the summary pressure, for the summary sentence and the index filter.
@@ -372,10 +366,10 @@ def behaviour(result: ConditionResult | None) -> str:
     """The behaviour key (see :data:`BEHAVIOURS`) of one isobar."""
     if result is None:
         return "not-published"
-    three = optional(result, "three_phase")
+    three = result.three_phase
     azeotropes = result.azeotropes
     if three is not None:
-        if optional(three, "heterogeneous_azeotrope") or any(a.heterogeneous for a in azeotropes):
+        if three.heterogeneous_azeotrope or any(a.heterogeneous for a in azeotropes):
             return "heterogeneous"
         if not azeotropes:
             return "liquid-split"
@@ -410,14 +404,14 @@ def _sentence(results: PairResults, result: ConditionResult | None, display: Dis
     if key == "zeotropic":
         return (f"{n1} and {n2} form no azeotrope {where}; α12 runs from "
                 f"{fmt(v.alpha_min, 3)} to {fmt(v.alpha_max, 3)}, {v.grade_text}.")
-    three = optional(result, "three_phase")
+    three = result.three_phase
     if key in ("heterogeneous", "liquid-split") and three is not None:
-        T = display.T(optional(three, "T_K"))
-        xa, xb = fmt(optional(three, "x1_a"), 3), fmt(optional(three, "x1_b"), 3)
+        T = display.T(three.T_K)
+        xa, xb = fmt(three.x1_a, 3), fmt(three.x1_b, 3)
         if key == "heterogeneous":
             return (f"{n1} and {n2} split into two liquids (x1 = {xa} and {xb}) that boil "
                     f"together {where} at {T}: a heterogeneous azeotrope "
-                    f"(vapour y1 = {fmt(optional(three, 'y1'), 3)}), which a decanter can cross.")
+                    f"(vapour y1 = {fmt(three.y1, 3)}), which a decanter can cross.")
         return (f"{n1} and {n2} split into two liquids (x1 = {xa} and {xb}) that boil "
                 f"together {where} at {T}; the vapour lies outside the liquid split, so "
                 "there is no azeotrope.")
@@ -443,58 +437,52 @@ def _azeotrope_rows(result: ConditionResult, display: Display) -> tuple[Azeotrop
 
 
 def _three_phase_rows(result: ConditionResult, display: Display) -> tuple[Row, ...]:
-    three = optional(result, "three_phase")
+    three = result.three_phase
     if three is None:
         return ()
-    rows = [Row("Temperature", display.T(optional(three, "T_K"), 2)),
-            Row("Pressure", display.P(optional(three, "P_Pa"), 5)),
-            Row("Liquid compositions x1", f"{fmt(optional(three, 'x1_a'), 4)} and "
-                f"{fmt(optional(three, 'x1_b'), 4)}"),
-            Row("Vapour y1", fmt(optional(three, "y1"), 4))]
-    hetero = optional(three, "heterogeneous_azeotrope")
-    if hetero is not None:
-        rows.append(Row("Heterogeneous azeotrope", "yes (the vapour lies between the liquids)"
-                        if hetero else "no (the vapour lies outside the liquid split)"))
+    rows = [Row("Temperature", display.T(three.T_K, 2)),
+            Row("Pressure", display.P(three.P_Pa, 5)),
+            Row("Liquid compositions x1", f"{fmt(three.x1_a, 4)} and {fmt(three.x1_b, 4)}"),
+            Row("Vapour y1", fmt(three.y1, 4))]
+    rows.append(Row("Heterogeneous azeotrope", "yes (the vapour lies between the liquids)"
+                    if three.heterogeneous_azeotrope
+                    else "no (the vapour lies outside the liquid split)"))
     return tuple(rows)
 
 
 def _quicklook_rows(result: ConditionResult) -> tuple[Row, ...]:
-    look = optional(result, "quicklook")
+    look = result.quicklook
     if look is None:
         return ()
     rows: list[Row] = []
-    top = optional(look, "top_component")
-    requested, split = optional(look, "requested"), optional(look, "split")
+    top = look.top_component
+    requested, split = look.requested, look.split
 
-    def split_text(s: Any) -> str:
-        return (f"distillate x1 = {fmt(optional(s, 'distillate_x1'), 3)}, bottoms x1 = "
-                f"{fmt(optional(s, 'bottoms_x1'), 3)}, feed x1 = "
-                f"{fmt(optional(s, 'feed_x1'), 3)}")
+    def split_text(s: Split) -> str:
+        return (f"distillate x1 = {fmt(s.distillate_x1, 3)}, bottoms x1 = "
+                f"{fmt(s.bottoms_x1, 3)}, feed x1 = {fmt(s.feed_x1, 3)}")
 
-    if requested is not None:
-        rows.append(Row("Split asked", split_text(requested)))
-    limited = optional(look, "limited_by")
+    rows.append(Row("Split asked", split_text(requested)))
+    limited = look.limited_by
     if split is not None and (limited or split != requested):
         rows.append(Row("Split computed", split_text(split)))
     if limited:
         rows.append(Row("Limited by", str(limited)))
-    if top is not None:
-        rows.append(Row("Overhead", f"component {top}"))
-    for name, label in (("stages_min", "Minimum stages (total reflux, incl. reboiler)"),
-                        ("fenske_stages", "Fenske estimate (geometric-mean α)"),
-                        ("reflux_min", "Minimum reflux ratio (saturated-liquid feed)")):
-        value = optional(look, name)
+    rows.append(Row("Overhead", f"component {top}"))
+    for value, label in ((look.stages_min, "Minimum stages (total reflux, incl. reboiler)"),
+                         (look.fenske_stages, "Fenske estimate (geometric-mean α)"),
+                         (look.reflux_min, "Minimum reflux ratio (saturated-liquid feed)")):
         if value is not None:
             rows.append(Row(label, fmt(float(value), 3)))
-    a_top, a_bottom = optional(look, "alpha_top"), optional(look, "alpha_bottom")
+    a_top, a_bottom = look.alpha_top, look.alpha_bottom
     if a_top is not None and a_bottom is not None:
         rows.append(Row("α at top and bottom", f"{fmt(a_top, 3)} and {fmt(a_bottom, 3)}"))
-    pinch = optional(look, "pinch")
+    pinch = look.pinch
     if pinch:
-        at = optional(look, "pinch_x1")
+        at = look.pinch_x1
         rows.append(Row("Pinch", f"{pinch}" + (f" at x1 = {fmt(at, 3)}" if at is not None
                                                 else "")))
-    reason = optional(look, "reason")
+    reason = look.reason
     if reason:
         rows.append(Row("Not computed", str(reason)))
     return tuple(rows)
@@ -539,22 +527,19 @@ def _condition(pair_id: str, result: ConditionResult, display: Display) -> Condi
 
 def _trace_rows(results: PairResults, display: Display) -> tuple[tuple[Row, ...],
                                                                  tuple[str, ...]]:
-    trace = optional(results, "trace")
+    trace = results.trace
     if trace is None:
         return (), ()
-    P = np.asarray(optional(trace, "P_Pa") if optional(trace, "P_Pa") is not None else [],
-                   dtype=float)
-    x1 = np.asarray(optional(trace, "x1") if optional(trace, "x1") is not None else [],
-                    dtype=float)
-    T = np.asarray(optional(trace, "T_K") if optional(trace, "T_K") is not None else [],
-                   dtype=float)
+    P = np.asarray(trace.P_Pa, dtype=float)
+    x1 = np.asarray(trace.x1, dtype=float)
+    T = np.asarray(trace.T_K, dtype=float)
     rows = tuple(Row(fmt(display.P_value(p), 4), fmt(x, 4),
                      fmt(display.T_value(t), 2, fixed=True))
                  for p, x, t in zip(P, x1, T, strict=False) if np.isfinite(x))
-    events = tuple(one_line(e) for e in (optional(trace, "events") or ()))
-    shift = optional(trace, "shift_x1")
-    if shift is not None and math.isfinite(shift):
-        sensitive = optional(trace, "pressure_sensitive")
+    events = tuple(one_line(e) for e in trace.events)
+    shift = trace.shift_x1
+    if math.isfinite(shift):
+        sensitive = trace.pressure_sensitive
         events = (f"The azeotropic composition moves by {fmt(shift, 3)} in x1 over the "
                   "pressures traced" + (" (pressure-sensitive: pressure-swing distillation "
                                         "may be worth a look)." if sensitive else "."),
@@ -567,10 +552,9 @@ def _warnings(results: PairResults, display: Display,
     out = [one_line(w) for w in results.warnings]
     for result in conditions:
         out.extend(f"{display.condition(result)}: {one_line(w)}" for w in result.warnings)
-    for check in optional(results, "checks") or ():
-        if optional(check, "passed") is False:
-            out.append(f"Check failed: {one_line(optional(check, 'name') or '')}: "
-                       f"{one_line(optional(check, 'detail') or '')}")
+    for check in results.checks:
+        if not check.passed:
+            out.append(f"Check failed: {one_line(check.name)}: {one_line(check.detail)}")
     quality = results.pair.quality
     if quality in ("unverified", "demo", "predicted"):
         out.append(f"Parameter quality '{quality}': {QUALITIES.get(quality, '')}.")
@@ -581,11 +565,10 @@ def _index_row(results: PairResults, c1: ComponentView, c2: ComponentView,
                summary: ConditionResult | None, key: str, display: Display) -> IndexRow:
     pid = safe_id(results.pair.id)
     az = summary.azeotropes[0] if summary is not None and summary.azeotropes else None
-    three = optional(summary, "three_phase") if summary is not None else None
-    az_T = az.T_K if az is not None else (optional(three, "T_K") if key == "heterogeneous"
-                                          else None)
-    az_x = az.x1 if az is not None else (optional(three, "y1") if key == "heterogeneous"
-                                         else None)
+    three = summary.three_phase if summary is not None else None
+    hetero = three if key == "heterogeneous" else None
+    az_T = az.T_K if az is not None else (hetero.T_K if hetero is not None else None)
+    az_x = az.x1 if az is not None else (hetero.y1 if hetero is not None else None)
     nan = float("nan")
     return IndexRow(
         pair_id=pid, url=f"pairs/{pid}.md", title=f"{c1.name} + {c2.name}",
@@ -624,12 +607,11 @@ def _pair(catalogue: Catalogue, results: PairResults, components: dict[str, Comp
                 hetero = " (heterogeneous)" if a.heterogeneous else ""
                 rows.append(Row(f"Azeotrope at {at}", f"{_KIND_WORDS.get(a.kind, a.kind)}"
                                 f"{hetero}, x1 = {fmt(a.x1, 3)}, {display.T(a.T_K)}"))
-        elif optional(summary, "three_phase") is not None:
+        elif summary.three_phase is not None:
             three = summary.three_phase
             rows.append(Row(f"Liquid split at {at}", f"two liquids x1 = "
-                            f"{fmt(optional(three, 'x1_a'), 3)} and "
-                            f"{fmt(optional(three, 'x1_b'), 3)} boil at "
-                            f"{display.T(optional(three, 'T_K'))}"))
+                            f"{fmt(three.x1_a, 3)} and {fmt(three.x1_b, 3)} boil at "
+                            f"{display.T(three.T_K)}"))
         else:
             rows.append(Row(f"Azeotrope at {at}", "none found" if
                             summary.azeotrope_search_complete else
@@ -640,16 +622,14 @@ def _pair(catalogue: Catalogue, results: PairResults, components: dict[str, Comp
         rows.append(Row(f"At {at}", "not published for this pair; see the conditions below"))
     rows.append(Row("Model and data quality", f"{pair.model.name}; {pair.quality}: "
                     f"{QUALITIES.get(pair.quality, '')}"))
-    failed = [c for c in (optional(results, "checks") or ()) if optional(c, "passed") is False]
-    checks_all = optional(results, "checks") or ()
+    failed = results.failed_checks
+    checks_all = results.checks
     if checks_all:
         rows.append(Row("Reference checks", f"{len(checks_all) - len(failed)} of "
                         f"{len(checks_all)} passed"))
     parameters = tuple(Row(k, one_line(v)) for k, v in pair.published_parameters.items())
     parameters_si = tuple(Row(k, v) for k, v in pair.model.parameters_text().items())
-    checks = tuple((one_line(optional(c, "name") or ""), bool(optional(c, "passed")),
-                    one_line(optional(c, "detail") or ""),
-                    one_line(optional(c, "reference") or ""))
+    checks = tuple((one_line(c.name), c.passed, one_line(c.detail), one_line(c.reference))
                    for c in checks_all)
     trace, events = _trace_rows(results, display)
     recorded: list[Row] = []

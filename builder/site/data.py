@@ -4,7 +4,10 @@ CSV files are in SI (K, Pa, mole fractions) whatever the pages show, with the
 unit in each column name; a column header names component 1 and 2 by their
 catalogue ids (safe slugs), never by free text, so no spreadsheet formula can
 arrive through a name.  ``atlas.json`` holds each pair's key results for other
-intranet tools (format ``vle-atlas/1``); each pair also has its own JSON.
+intranet tools (format ``vle-atlas/2``, described by ``docs/atlas-json.schema.json``):
+every number is a JSON number in SI or with its unit in the key, model parameters are
+objects (``{"g12_J_per_mol": -242.5}``, ``{"a": -1.42, "b_K": -390.2}``); each pair also
+has its own JSON.
 """
 
 from __future__ import annotations
@@ -22,13 +25,14 @@ import numpy as np
 from builder.analysis.results import ConditionResult, PairResults
 from builder.catalogue.loader import Catalogue
 from builder.catalogue.records import Component
-from builder.site.context import AtlasView, PairView, behaviour, optional, summary_condition
+from builder.site.context import AtlasView, PairView, behaviour, summary_condition
 from builder.site.settings import SiteSettings
 from builder.site.text import safe_id
+from builder.thermo.vapour_pressure import Antoine, ExtendedAntoine
 
 __all__ = ["FORMAT", "atlas_json", "condition_csvs", "pair_json", "plain"]
 
-FORMAT = "vle-atlas/1"
+FORMAT = "vle-atlas/2"
 
 
 def plain(value: Any) -> Any:
@@ -100,13 +104,24 @@ def _component(component: Component, pair_ids: list[str]) -> dict[str, Any]:
         "critical_temperature_K": component.critical_temperature_K,
         "critical_pressure_Pa": component.critical_pressure_Pa,
         "acentric_factor": component.acentric_factor,
-        "vapour_pressure": {"equation": component.vapour_pressure.equation(),
-                            "T_min_K": component.vapour_pressure.T_min_K,
-                            "T_max_K": component.vapour_pressure.T_max_K},
+        "vapour_pressure": _vapour_pressure(component),
         "hazard": component.hazard,
         "page": f"components/{safe_id(component.id)}.html",
         "pairs": pair_ids,
     }
+
+
+def _vapour_pressure(component: Component) -> dict[str, Any]:
+    """The correlation in SI: ``ln(P/Pa) = A - B_K/(T/K + C_K)`` or the DIPPR-101 form."""
+    vp = component.vapour_pressure
+    data: dict[str, Any] = {"equation": vp.equation(), "T_min_K": vp.T_min_K,
+                            "T_max_K": vp.T_max_K}
+    if isinstance(vp, Antoine):
+        data.update(form="ln(P/Pa) = A - B_K/(T/K + C_K)", A=vp.A, B_K=vp.B, C_K=vp.C)
+    elif isinstance(vp, ExtendedAntoine):
+        data.update(form="ln(P/Pa) = A + B_K/(T/K) + C ln(T/K) + D (T/K)^E", A=vp.A,
+                    B_K=vp.B, C=vp.C, D=vp.D, E=vp.E)
+    return data
 
 
 def _condition(result: ConditionResult, view_csv: tuple[str, str]) -> dict[str, Any]:
@@ -130,8 +145,7 @@ def _condition(result: ConditionResult, view_csv: tuple[str, str]) -> dict[str, 
         "curve_csv": view_csv[0],
         "table_csv": view_csv[1],
     }
-    for name in ("three_phase", "quicklook"):
-        value = optional(result, name)
+    for name, value in (("three_phase", result.three_phase), ("quicklook", result.quicklook)):
         if value is not None:
             data[name] = plain(value)
     return data
@@ -150,7 +164,7 @@ def pair_json(results: PairResults, view: PairView, settings: SiteSettings) -> d
         "normal_boiling_points_K": [results.component1.normal_boiling_point_K,
                                     results.component2.normal_boiling_point_K],
         "model": pair.model.name,
-        "parameters": dict(pair.published_parameters),
+        "parameters": dict(pair.parameters),
         "parameters_T_range_K": [pair.T_min_K, pair.T_max_K],
         "quality": pair.quality,
         "source": {"ref": pair.source.ref, "where": pair.source.where,
@@ -161,10 +175,9 @@ def pair_json(results: PairResults, view: PairView, settings: SiteSettings) -> d
                        for r, v in zip(results.conditions, view.conditions, strict=True)],
         "warnings": list(view.warnings),
     }
-    for name in ("trace", "checks"):
-        value = optional(results, name)
-        if value is not None:
-            data[name] = plain(value)
+    if results.trace is not None:
+        data["trace"] = plain(results.trace)
+    data["checks"] = plain(results.checks)
     return data
 
 

@@ -41,7 +41,7 @@ from numpy.typing import NDArray
 from builder.analysis.results import ConditionResult, PairResults
 from builder.analysis.second_opinion import SecondOpinion
 from builder.catalogue.records import Component
-from builder.site.context import Display, condition_slug, optional
+from builder.site.context import Display, condition_slug
 from builder.site.opinion_figures import Overlay, TraceOverlay, trace_overlay, txy_overlay
 from builder.site.settings import SiteSettings
 from builder.site.text import fmt, mpl_text, one_line, safe_id
@@ -284,23 +284,19 @@ def _diagram(results: PairResults, result: ConditionResult, display: Display,
         Line2D([], [], color=DEW_COLOUR, marker="s", markerfacecolor="white",
                label="dew line (vapour y1)"),
     ]
-    three = optional(result, "three_phase")
+    three = result.three_phase
     notes: list[str] = []
     if three is not None:
-        xa, xb = optional(three, "x1_a"), optional(three, "x1_b")
-        level = (display.T_value(optional(three, "T_K")) if isobar
-                 else optional(three, "P_Pa") / display.settings.pressure_factor)
-        if None not in (xa, xb, level):
-            ax.plot([xa, xb], [level, level], color="#4b4b4b", linewidth=3.2,
-                    solid_capstyle="butt", zorder=5)
-            y1 = optional(three, "y1")
-            if y1 is not None:
-                ax.plot([y1], [level], marker="o", markersize=5, color="white",
-                        markeredgecolor="#4b4b4b", markeredgewidth=1.4, linestyle="none",
-                        zorder=6)
-            handles.append(Line2D([], [], color="#4b4b4b", linewidth=3.2,
-                                  label="three-phase line"))
-            notes.append(f"a three-phase line from x1 = {fmt(xa, 3)} to {fmt(xb, 3)}")
+        xa, xb = three.x1_a, three.x1_b
+        level = (display.T_value(three.T_K) if isobar
+                 else three.P_Pa / display.settings.pressure_factor)
+        ax.plot([xa, xb], [level, level], color="#4b4b4b", linewidth=3.2,
+                solid_capstyle="butt", zorder=5)
+        ax.plot([three.y1], [level], marker="o", markersize=5, color="white",
+                markeredgecolor="#4b4b4b", markeredgewidth=1.4, linestyle="none", zorder=6)
+        handles.append(Line2D([], [], color="#4b4b4b", linewidth=3.2,
+                              label="three-phase line"))
+        notes.append(f"a three-phase line from x1 = {fmt(xa, 3)} to {fmt(xb, 3)}")
     az_points = []
     for a in result.azeotropes:
         level = display.T_value(a.T_K) if isobar else a.P_Pa / display.settings.pressure_factor
@@ -364,8 +360,8 @@ def _xy(results: PairResults, display: Display, folder: str) -> Figure:
         dashed = _draw(ax, curve.x1, curve.y1, usable, np.asarray(result.extrapolated, bool),
                        colour=colour, marker=marker)
         any_dashed |= bool(dashed)
-        three = optional(result, "three_phase")
-        if three is not None and None not in (optional(three, "x1_a"), optional(three, "y1")):
+        three = result.three_phase
+        if three is not None:
             ax.plot([three.x1_a, three.x1_b], [three.y1, three.y1], color=colour,
                     linewidth=2.6, solid_capstyle="butt", zorder=3)
         for a in result.azeotropes:
@@ -486,22 +482,16 @@ def _alpha(results: PairResults, display: Display, folder: str) -> Figure:
 
 def _trace(results: PairResults, display: Display, folder: str,
            overlay: TraceOverlay | None = None) -> Figure | None:
-    trace = optional(results, "trace")
+    trace = results.trace
     if trace is None:
         return None
-    P = optional(trace, "P_Pa")
-    x1 = optional(trace, "x1")
-    T = optional(trace, "T_K")
-    if P is None or x1 is None or T is None:
-        return None
-    P = np.asarray(P, dtype=float) / display.settings.pressure_factor
-    x1 = np.asarray(x1, dtype=float)
-    T = display.T_values(np.asarray(T, dtype=float))
+    P = np.asarray(trace.P_Pa, dtype=float) / display.settings.pressure_factor
+    x1 = np.asarray(trace.x1, dtype=float)
+    T = display.T_values(np.asarray(trace.T_K, dtype=float))
     ok = np.isfinite(P) & np.isfinite(x1) & np.isfinite(T)
     if ok.sum() < 2:
         return None
-    ex_raw = optional(trace, "extrapolated")
-    ex = np.asarray(ex_raw, dtype=bool) if ex_raw is not None else np.zeros_like(ok)
+    ex = np.asarray(trace.extrapolated, dtype=bool)
     fig = MplFigure(figsize=(4.4, 2.8))
     FigureCanvasSVG(fig)
     _margins(fig, right=0.1, top=0.3, wspace=0.55)
