@@ -17,7 +17,7 @@ from dataclasses import dataclass
 
 from builder.site.context import BEHAVIOURS, AtlasView, ComponentView
 from builder.site.families import FAMILIES
-from builder.site.partners import NO_PAGE, Partners
+from builder.site.partners import NO_PAGE, NOT_BUILT, Partners
 
 __all__ = ["MARKS", "BehaviourMatrix", "MatrixCell", "behaviour_matrix", "family_starts"]
 
@@ -33,7 +33,8 @@ MARKS: dict[str, tuple[str, str, str]] = {
     "several": ("sv", "◆", BEHAVIOURS["several"]),
     "uncertain": ("un", "?", BEHAVIOURS["uncertain"]),
     "not-published": ("np", "–", BEHAVIOURS["not-published"]),
-    NO_PAGE: ("no", "×", "no page (point at the cell for the reason)"),
+    NO_PAGE: ("no", "×", "no page: not part of this build, or cannot be predicted (point "
+              "at the cell for the reason)"),
 }
 
 
@@ -99,9 +100,10 @@ def behaviour_matrix(view: AtlasView, partners: Partners) -> BehaviourMatrix:
             css, symbol, _text = MARKS.get(key, MARKS["uncertain"])
             origin = row.origin if row is not None else "none"
             fitted = " f" if origin == "fitted" else ""
-            # The row and column name the pair and the symbol its class: only a cell
-            # without a page carries words (why), which keeps an 80 x 80 page light.
-            title = row.behaviour_label if row is not None and not row.has_page else ""
+            # The row and column name the pair and the symbol its class: only a cell that
+            # cannot be predicted carries words (why), which keeps an 80 x 80 page light.
+            title = (row.behaviour_label if row is not None and not row.has_page
+                     and row.reason != NOT_BUILT else "")
             cells.append(MatrixCell(css=f"m{css}{fitted}{edge}", symbol=symbol,
                                     url=row.pair_url if row is not None else "", title=title))
             if this.id < other.id:

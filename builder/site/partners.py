@@ -25,7 +25,7 @@ from builder.site.context import BEHAVIOURS, AtlasView, ComponentView, PairView,
 from builder.site.families import FAMILIES, family
 from builder.site.text import fmt
 
-__all__ = ["NO_PAGE", "PartnerRow", "Partners", "is_predicted", "partner_rows"]
+__all__ = ["NOT_BUILT", "NO_PAGE", "PartnerRow", "Partners", "is_predicted", "partner_rows"]
 
 #: The behaviour key of a combination that has no page (the reason is given beside it).
 NO_PAGE = "no-page"
@@ -34,9 +34,13 @@ NO_PAGE = "no-page"
 Reason = Callable[[str, str], str]
 
 
+#: The reason of a combination whose predicted page this build leaves out.
+NOT_BUILT = "no fitted set; predicted pages are not part of this build"
+
+
 def no_fitted_set(_c1: str, _c2: str) -> str:
     """The reason when the build makes pages for catalogued (fitted) sets only."""
-    return "no fitted set; predicted pages are not part of this build"
+    return NOT_BUILT
 
 
 def is_predicted(pair: PairView, catalogue: Catalogue) -> bool:
@@ -63,6 +67,7 @@ class PartnerRow:
     alpha_sort: float
     origin: str  # "fitted", "predicted" or "none"
     origin_label: str
+    reason: str = ""  # why there is no page ("" when there is one)
 
     @property
     def has_page(self) -> bool:
@@ -108,7 +113,7 @@ def partner_rows(view: AtlasView, catalogue: Catalogue, atlas: Mapping[str, Pair
                     behaviour_label="no page: " + reason(this.id, other.id),
                     azeotrope_T="—", azeotrope_T_sort=math.nan, azeotrope_x="—",
                     azeotrope_x_sort=math.nan, alpha_range="—", alpha_sort=math.nan,
-                    origin="none", origin_label="—"))
+                    origin="none", origin_label="—", reason=reason(this.id, other.id)))
                 continue
             first = pair.c1.id == this.id
             r = pair.index

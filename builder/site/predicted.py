@@ -18,13 +18,13 @@ from builder.catalogue.loader import Catalogue
 from builder.catalogue.predictive import CannotPredict, predicted_pair
 from builder.catalogue.records import PairRecord
 from builder.errors import AtlasError
+from builder.site.partners import NOT_BUILT
 
-__all__ = ["ALL", "PredictedSelection", "select_predicted"]
+__all__ = ["ALL", "NOT_BUILT", "PredictedSelection", "select_predicted"]
 
 #: The ``predicted_pairs`` value that includes every combination.
 ALL = "all"
 
-NOT_BUILT = "no fitted set; predicted pages are not part of this build"
 
 
 @dataclass(frozen=True)
