@@ -285,7 +285,7 @@ def test_preview_serves_on_loopback_only(small_site: Path) -> None:
     preview = Preview(small_site, "127.0.0.1", 0, quiet=True).start()
     try:
         with urllib.request.urlopen(preview.url + "atlas.json", timeout=10) as response:
-            assert json.loads(response.read())["format"] == "vle-atlas/1"
+            assert json.loads(response.read())["format"] == "vle-atlas/2"
     finally:
         preview.close()
 
