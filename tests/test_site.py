@@ -127,6 +127,8 @@ def test_settings_defaults_and_file(tmp_path: Path) -> None:
     ("units: {temperature: F}\n", "units.temperature"),
     ("units: {pressure: furlong}\n", "units.pressure"),
     ("summary_pressure: 101.325\n", "summary_pressure"),
+    ("second_opinion: maybe\n", "second_opinion"),
+    ("predicted_pairs: some\n", "predicted_pairs"),
 ])
 def test_settings_errors_name_the_field(tmp_path: Path, text: str, field: str) -> None:
     path = tmp_path / "site.yaml"

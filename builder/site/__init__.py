@@ -5,8 +5,12 @@ object to the next (nothing is written until everything is computed):
 
 1. :mod:`.settings` -- read and validate the site settings (``site.yaml``);
 2. load and validate the catalogue (:func:`builder.catalogue.load_catalogue`);
-3. compute every pair (:func:`builder.analysis.results.compute_atlas`);
-4. :mod:`.context` -- turn results into page views (plain, display-ready data);
+3. compute every pair (:func:`builder.analysis.results.compute_atlas`), the predicted
+   pairs the settings ask for (:mod:`.predicted`) and the second opinion on every
+   fitted pair (:func:`builder.analysis.second_opinion.second_opinions`);
+4. :mod:`.context` -- turn results into page views (plain, display-ready data), with
+   :mod:`.partners` and :mod:`.matrix` (solvent screening, grouped by :mod:`.families`),
+   :mod:`.opinion` (the second opinion) and :mod:`.datasheet` (the printed sheet);
 5. :mod:`.figures`, :mod:`.data`, :mod:`.pages` -- render SVG figures, CSV and
    JSON downloads and Markdown pages through the jinja2 templates of
    ``site_templates/`` into an in-memory :class:`~.content.SiteContent`;

@@ -37,7 +37,7 @@ MARKER = ".atlas-site"
 SOURCE_MARKER = ".atlas-source"
 
 NAV = [{"Pairs": "index.md"}, {"Components": "components/index.md"},
-       {"Methods": "methods.md"}, {"Catalogue": "catalogue.md"}]
+       {"Matrix": "matrix.md"}, {"Methods": "methods.md"}, {"Catalogue": "catalogue.md"}]
 
 
 class AssembleError(AtlasError):

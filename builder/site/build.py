@@ -51,6 +51,7 @@ from builder.site.cache import BuildCache, code_version, component_key, default_
 from builder.site.content import generate
 from builder.site.executor import Executor, LocalExecutor
 from builder.site.figures import Figure
+from builder.site.predicted import select_predicted
 from builder.site.progress import Progress
 from builder.site.publish import publish, recover, staging_folder
 from builder.site.search import search_documents, write_search_index
@@ -196,11 +197,17 @@ def build_site(catalogue_dir: Path | str = DEFAULT_CATALOGUE, out_dir: Path | st
         stage("load", t)
 
         t = start("compute")
-        pair_ids, component_ids = sorted(catalogue.pairs), sorted(catalogue.components)
-        pair_keys = {pid: pair_key(catalogue, pid, settings) for pid in pair_ids}
+        # Predicted pairs (site setting predicted_pairs) are worked on like fitted ones,
+        # from a catalogue that holds their predicted records beside the fitted sets.
+        selection = select_predicted(catalogue, settings.predicted_pairs)
+        work_catalogue = replace(catalogue, pairs={**catalogue.pairs, **selection.records})
+        pair_ids, component_ids = sorted(work_catalogue.pairs), sorted(catalogue.components)
+        pair_keys = {pid: pair_key(work_catalogue, pid, settings) for pid in pair_ids}
         component_keys = {cid: component_key(catalogue, cid, settings) for cid in component_ids}
         pair_work = _run_work(
-            [(pid, pair_keys[pid], pair_task(catalogue, pid, settings)) for pid in pair_ids],
+            [(pid, pair_keys[pid], pair_task(work_catalogue, pid, settings,
+                                             predicted=pid in selection.records))
+             for pid in pair_ids],
             run_pair, "pairs", runner, cache, quiet_progress)
         component_work = _run_work(
             [(cid, component_keys[cid], component_task(catalogue, cid, settings))
@@ -214,6 +221,7 @@ def build_site(catalogue_dir: Path | str = DEFAULT_CATALOGUE, out_dir: Path | st
             runner.close()
     report.computed, report.cached = cache.misses, cache.hits
     atlas: dict[str, PairResults] = {pid: pair_work[pid].results for pid in pair_ids}
+    opinions = {pid: out.opinion for pid, out in pair_work.items() if out.opinion is not None}
     pair_figs: dict[str, tuple[Figure, ...]] = {pid: pair_work[pid].figures for pid in pair_ids}
     comp_figs = {cid: component_work[cid].figure for cid in component_ids}
     del pair_work, component_work
@@ -232,7 +240,8 @@ def build_site(catalogue_dir: Path | str = DEFAULT_CATALOGUE, out_dir: Path | st
             f"  - {line}" for lines in failed.values() for line in lines))
 
     t = start("render")
-    view, content = generate(settings, catalogue, atlas, pair_figs, comp_figs)
+    view, content = generate(settings, catalogue, atlas, pair_figs, comp_figs,
+                             opinions=opinions, selection=selection)
     methods = content.files.get("methods.md", b"").decode("utf-8")
     del atlas, pair_figs, comp_figs
     stage("render", t)

@@ -92,6 +92,9 @@ def pair_key(catalogue: Catalogue, pair_id: str, settings: SiteSettings) -> str:
     files = [(f"binaries/{pair_id}", _file_bytes(root / "binaries" / f"{pair_id}.yaml"))]
     files += [(f"components/{cid}", _file_bytes(root / "components" / f"{cid}.yaml"))
               for cid in (pair.component1, pair.component2)]
+    # The group tables: predicted pairs and the second opinion of fitted ones rest on them.
+    files += [(f"groups/{path.name}", _file_bytes(path))
+              for path in sorted((root / "groups").glob("*.yaml"))]
     return _hash([("kind", b"pair"), ("code", code_version().encode()),
                   ("settings", _settings_text(settings).encode()),
                   *_with_references(catalogue, files)])

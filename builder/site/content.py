@@ -16,11 +16,16 @@ from dataclasses import dataclass, field
 from typing import Any
 
 from builder.analysis.results import PairResults
+from builder.analysis.second_opinion import SecondOpinion
 from builder.catalogue.loader import Catalogue
-from builder.site.context import AtlasView, build_views
+from builder.site.context import AtlasView, Display, build_views
 from builder.site.data import atlas_json, condition_csvs, pair_json, plain
 from builder.site.figures import Figure, component_figure, pair_figures
+from builder.site.opinion import opinion_json, opinion_view
 from builder.site.pages import render_pages
+from builder.site.partners import is_predicted, partner_rows
+from builder.site.predicted import PredictedSelection
+from builder.site.predicted_figures import predicted_figure
 from builder.site.settings import SiteSettings
 from builder.site.text import UnsafeName
 
@@ -60,13 +65,26 @@ class SiteContent:
 
 def generate(settings: SiteSettings, catalogue: Catalogue, atlas: Mapping[str, PairResults],
              pair_figs: Mapping[str, Sequence[Figure]] | None = None,
-             comp_figs: Mapping[str, Figure] | None = None) -> tuple[AtlasView, SiteContent]:
+             comp_figs: Mapping[str, Figure] | None = None,
+             opinions: Mapping[str, SecondOpinion] | None = None,
+             selection: PredictedSelection | None = None) -> tuple[AtlasView, SiteContent]:
     """Every source file of the site, from the computed atlas and its figures (nothing is
     written).  Figures not given are drawn here, in this process (the build draws them
-    through its executor, see :mod:`.work`)."""
+    through its executor, see :mod:`.work`).
+
+    ``opinions`` (:func:`builder.analysis.second_opinion.second_opinions`) adds the
+    predictive model's second opinion to the fitted pairs' figures, pages and JSON;
+    ``selection`` (:func:`.predicted.select_predicted`) says which pairs of ``atlas`` are
+    predictions and why the combinations without a page have none.
+    """
+    opinions = opinions or {}
+    selection = selection or PredictedSelection()
     view = build_views(settings, catalogue, dict(atlas))
+    predicted = frozenset(p.id for p in view.pairs if is_predicted(p, catalogue))
     if pair_figs is None:
-        pair_figs = {pid: pair_figures(results, settings) for pid, results in atlas.items()}
+        pair_figs = {pid: (predicted_figure(results, settings) if pid in predicted
+                           else pair_figures(results, settings, opinions.get(pid)))
+                     for pid, results in atlas.items()}
     if comp_figs is None:
         comp_figs = {cid: component_figure(component, settings)
                      for cid, component in catalogue.components.items()}
@@ -79,6 +97,8 @@ def generate(settings: SiteSettings, catalogue: Catalogue, atlas: Mapping[str, P
             content.add(cv.curve_csv, curve)
             content.add(cv.table_csv, table)
         pair_data[pv.id] = pair_json(results, pv, settings)
+        if pv.id in opinions:
+            pair_data[pv.id]["second_opinion"] = opinion_json(opinions[pv.id])
         content.add(pv.json_path, json.dumps(plain(pair_data[pv.id]), indent=1, ensure_ascii=False,
                                              allow_nan=False) + "\n")
         for fig in pair_figs[pv.id]:
@@ -86,7 +106,11 @@ def generate(settings: SiteSettings, catalogue: Catalogue, atlas: Mapping[str, P
     for cid in sorted(comp_figs):
         content.add(comp_figs[cid].path, comp_figs[cid].svg)
     content.add("atlas.json", atlas_json(view, catalogue, atlas, pair_data))
-    pages = render_pages(view, pair_figs, comp_figs, {})
+    display = Display(settings)
+    pages = render_pages(view, pair_figs, comp_figs, {},
+                         partners=partner_rows(view, catalogue, atlas, selection.reason),
+                         opinions={pid: opinion_view(o, display) for pid, o in opinions.items()},
+                         predicted=predicted, selection=selection)
     for path, text in pages.items():
         content.add(path, text)
     return view, content

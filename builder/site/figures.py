@@ -39,8 +39,10 @@ from matplotlib.ticker import FuncFormatter
 from numpy.typing import NDArray
 
 from builder.analysis.results import ConditionResult, PairResults
+from builder.analysis.second_opinion import SecondOpinion
 from builder.catalogue.records import Component
 from builder.site.context import Display, condition_slug
+from builder.site.opinion_figures import Overlay, TraceOverlay, trace_overlay, txy_overlay
 from builder.site.settings import SiteSettings
 from builder.site.svg import compact
 from builder.site.text import fmt, mpl_text, one_line, safe_id
@@ -263,8 +265,9 @@ def _hetero_mask(result: ConditionResult) -> BoolArray:
 
 
 def _diagram(results: PairResults, result: ConditionResult, display: Display,
-             folder: str) -> Figure:
-    """Txy (isobar) or Pxy (isotherm) diagram of one condition."""
+             folder: str, overlay: Overlay | None = None) -> Figure:
+    """Txy (isobar) or Pxy (isotherm) diagram of one condition (``overlay`` draws more
+    lines on its axes and returns their legend handles)."""
     curve = result.curve
     n1, n2 = results.component1.name, results.component2.name
     isobar = result.kind == "isobar"
@@ -322,6 +325,8 @@ def _diagram(results: PairResults, result: ConditionResult, display: Display,
         ax.text(0.5, 0.5, curve.no_two_phase, transform=ax.transAxes, ha="center",
                 va="center", wrap=True)
         notes.append(curve.no_two_phase)
+    if overlay is not None:
+        handles += overlay(ax)
     if dashed or dashed_dew:
         drawn = int(usable.sum())
         whole = bool(dashed) and max(hi - lo for lo, hi in dashed) >= drawn - 1
@@ -493,7 +498,8 @@ def _alpha(results: PairResults, display: Display, folder: str) -> Figure:
                           "the more volatile.", group="alpha")
 
 
-def _trace(results: PairResults, display: Display, folder: str) -> Figure | None:
+def _trace(results: PairResults, display: Display, folder: str,
+           overlay: TraceOverlay | None = None) -> Figure | None:
     trace = results.trace
     if trace is None:
         return None
@@ -519,8 +525,11 @@ def _trace(results: PairResults, display: Display, folder: str) -> Figure | None
     right.set_ylabel(f"azeotrope temperature / {display.T_unit}")
     left.set_title("Composition")
     right.set_title("Temperature")
-    if d1 or d2:
-        _legend_below(fig, left, [_extrapolated_handle()], top=0.3, wspace=0.55)
+    handles = [_extrapolated_handle()] if d1 or d2 else []
+    if overlay is not None:
+        handles = overlay(left, right) + handles
+    if handles:
+        _legend_below(fig, left, handles, top=0.3, wspace=0.55)
     n1, n2 = results.component1.name, results.component2.name
     alt = (f"The azeotrope of {one_line(n1)} and {one_line(n2)} followed against pressure: "
            "its composition x1 (left) and temperature (right) on a logarithmic pressure axis.")
@@ -529,16 +538,21 @@ def _trace(results: PairResults, display: Display, folder: str) -> Figure | None
                   width_px=_size_px(fig)[0], height_px=_size_px(fig)[1])
 
 
-def pair_figures(results: PairResults, settings: SiteSettings) -> tuple[Figure, ...]:
-    """Every figure of one pair's page."""
+def pair_figures(results: PairResults, settings: SiteSettings,
+                 opinion: SecondOpinion | None = None) -> tuple[Figure, ...]:
+    """Every figure of one pair's page (with the second opinion drawn beside the fitted
+    curves when ``opinion`` is given)."""
     display = Display(settings)
     folder = f"pairs/{safe_id(results.pair.id)}"
     with matplotlib.rc_context(STYLE):  # type: ignore[arg-type]
-        figures = [_diagram(results, r, display, folder) for r in results.conditions]
+        figures = [_diagram(results, r, display, folder,
+                            txy_overlay(opinion, display, r) if opinion else None)
+                   for r in results.conditions]
         if results.conditions:
             figures += [_xy(results, display, folder), _gamma(results, display, folder),
                         _alpha(results, display, folder)]
-        trace = _trace(results, display, folder)
+        trace = _trace(results, display, folder,
+                       trace_overlay(opinion, display) if opinion else None)
         if trace is not None:
             figures.append(trace)
     return tuple(figures)

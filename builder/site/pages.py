@@ -15,15 +15,20 @@ from __future__ import annotations
 
 import math
 import posixpath
-from collections.abc import Mapping, Sequence
+from collections.abc import Mapping, Sequence, Set
 from typing import Any
 
 import jinja2
 from markupsafe import Markup
 
 from builder.site import TEMPLATES
-from builder.site.context import AtlasView, ComponentView, PairView
+from builder.site.context import BEHAVIOURS, AtlasView, ComponentView, Display, PairView
+from builder.site.datasheet import datasheet
 from builder.site.figures import Figure
+from builder.site.matrix import behaviour_matrix, family_starts
+from builder.site.opinion import OpinionView, fitted_events
+from builder.site.partners import NO_PAGE, PartnerRow, Partners
+from builder.site.predicted import PredictedSelection
 from builder.site.text import escape, fmt
 
 __all__ = ["environment", "page_url", "render_pages"]
@@ -46,6 +51,7 @@ def environment() -> jinja2.Environment:
     )
     env.filters["fmt"] = fmt
     env.filters["sortkey"] = _sortkey
+    env.globals["nan"] = math.nan
     return env
 
 
@@ -65,26 +71,55 @@ def _relative(here: str) -> Any:
 
 
 def render_pages(view: AtlasView, figures: Mapping[str, Sequence[Figure]],
-                 component_figures: Mapping[str, Figure], methods_context: Mapping[str, Any]
-                 ) -> dict[str, str]:
-    """Every page: ``{site-relative .md path: Markdown text}``."""
+                 component_figures: Mapping[str, Figure], methods_context: Mapping[str, Any],
+                 partners: Partners | None = None,
+                 opinions: Mapping[str, OpinionView] | None = None,
+                 predicted: Set[str] = frozenset(),
+                 selection: PredictedSelection | None = None) -> dict[str, str]:
+    """Every page: ``{site-relative .md path: Markdown text}``.
+
+    ``partners`` (:func:`.partners.partner_rows`) adds each component's partner table
+    and the behaviour matrix page; ``opinions`` the second opinion on fitted pair pages
+    and in the index; ``predicted`` names the pairs whose pages rest on a prediction and
+    ``selection`` adds the page listing the combinations that cannot be predicted.
+    """
+    opinions = opinions or {}
     env = environment()
+    at = Display(view.settings).P(view.settings.summary_pressure_Pa, 6)
     pages: dict[str, str] = {}
 
     def render(template: str, path: str, **context: Any) -> None:
         pages[path] = env.get_template(template).render(
             site=view.settings, atlas=view, rel=_relative(path), here=path, **context)
 
-    render("index.md.j2", "index.md")
+    render("index.md.j2", "index.md", opinions=opinions, predicted=predicted)
     render("components.md.j2", "components/index.md")
     render("methods.md.j2", "methods.md", **methods_context)
     render("catalogue.md.j2", "catalogue.md")
     for pair in view.pairs:
-        render("pair.md.j2", pair.url, p=pair, figures=_grouped(figures.get(pair.id, ())))
+        render("pair.md.j2", pair.url, p=pair, sheet=datasheet(pair),
+               figures=_grouped(figures.get(pair.id, ())), op=opinions.get(pair.id),
+               fitted_events=fitted_events(pair.trace_events),
+               is_predicted=pair.id in predicted)
     for component in view.components:
+        rows = (partners or {}).get(component.id, ())
         render("component.md.j2", component.url, c=component,
-               figure=component_figures.get(component.id), pairs_of=_pairs_of(view, component))
+               figure=component_figures.get(component.id), pairs_of=_pairs_of(view, component),
+               partners=rows, at=at, partner_behaviours=_behaviours(rows))
+    if selection is not None:
+        names = {c.id: c.name for c in view.components}
+        render("unpredictable.md.j2", "unpredictable.md", selection=selection, names=names,
+               predicted_count=len(predicted))
+    if partners is not None:
+        mx = behaviour_matrix(view, partners)
+        render("matrix.md.j2", "matrix.md", mx=mx, at=at, starts=family_starts(mx.groups))
     return pages
+
+
+def _behaviours(rows: Sequence[PartnerRow]) -> list[tuple[str, str]]:
+    keys = {r.behaviour for r in rows}
+    out = [(k, v) for k, v in BEHAVIOURS.items() if k in keys]
+    return out + ([(NO_PAGE, "no page")] if NO_PAGE in keys else [])
 
 
 def _grouped(figures: Sequence[Figure]) -> dict[str, Any]:

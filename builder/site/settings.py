@@ -10,6 +10,9 @@ every field has a sensible default, so the file and each field are optional::
       temperature: C            # C or K, on pages, tables and figures
       pressure: kPa             # Pa, kPa, MPa, bar, mbar, atm, mmHg, psi
     summary_pressure: 101.325 kPa   # the isobar of the summary box and the index
+    second_opinion: true        # fitted pages beside the predictive model (UNIFAC)
+    predicted_pairs: none       # pages of combinations without a fitted set: none, all,
+                                # or a list of component ids (the combinations among them)
 
 Downloads (CSV, ``atlas.json``) are always in SI (K, Pa), whatever is shown.
 The pressures and temperatures each pair publishes come from its catalogue
@@ -65,6 +68,10 @@ class SiteSettings:
     temperature_unit: str = "C"
     pressure_unit: str = "kPa"
     summary_pressure_Pa: float = 101325.0
+    #: Compute the predictive model beside every fitted pair (builder.analysis.second_opinion).
+    second_opinion: bool = True
+    #: Predicted pair pages: () none, ("all",) every combination, or component ids.
+    predicted_pairs: tuple[str, ...] = ()
     file: str = "(defaults)"
 
     def __post_init__(self) -> None:
@@ -95,7 +102,8 @@ class SiteSettings:
         return UNITS["pressure"][self.pressure_unit](1.0)
 
 
-_FIELDS = {"title", "description", "organisation", "units", "summary_pressure"}
+_FIELDS = {"title", "description", "organisation", "units", "summary_pressure",
+           "second_opinion", "predicted_pairs"}
 _UNIT_FIELDS = {"temperature", "pressure"}
 
 
@@ -143,4 +151,22 @@ def load_settings(path: Path | str | None = None) -> SiteSettings:
             raise SettingsError(name, "summary_pressure",
                                 "a pressure with a unit, such as '101.325 kPa' or '1 atm'",
                                 repr(raw)) from None
+    if "second_opinion" in data:
+        if not isinstance(data["second_opinion"], bool):
+            raise SettingsError(name, "second_opinion", "true or false",
+                                repr(data["second_opinion"]))
+        kwargs["second_opinion"] = data["second_opinion"]
+    if "predicted_pairs" in data:
+        kwargs["predicted_pairs"] = _predicted_pairs(name, data["predicted_pairs"])
     return SiteSettings(**kwargs)
+
+
+def _predicted_pairs(file: str, raw: Any) -> tuple[str, ...]:
+    if raw in (None, "none", False):
+        return ()
+    if raw == "all":
+        return ("all",)
+    if isinstance(raw, list) and raw and all(isinstance(v, str) and v for v in raw):
+        return tuple(raw)
+    raise SettingsError(file, "predicted_pairs",
+                        "'none', 'all' or a list of component ids", repr(raw))

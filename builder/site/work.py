@@ -13,9 +13,11 @@ from __future__ import annotations
 from dataclasses import dataclass
 
 from builder.analysis.results import PairResults, compute_pair
+from builder.analysis.second_opinion import SecondOpinion, second_opinion
 from builder.catalogue.loader import Catalogue
 from builder.site.cache import code_version
 from builder.site.figures import Figure, component_figure, pair_figures
+from builder.site.predicted_figures import predicted_figure
 from builder.site.settings import SiteSettings
 
 __all__ = ["ComponentOutput", "ComponentTask", "PairOutput", "PairTask", "component_task",
@@ -27,12 +29,14 @@ class PairTask:
     pair_id: str
     catalogue: Catalogue  # the pair, its two components and the references
     settings: SiteSettings
+    predicted: bool = False  # a predicted pair (no fitted set): one combined figure
 
 
 @dataclass(frozen=True)
 class PairOutput:
     results: PairResults
     figures: tuple[Figure, ...]
+    opinion: SecondOpinion | None  # the predictive model beside a fitted pair
     code_version: str
 
 
@@ -49,12 +53,13 @@ class ComponentOutput:
     code_version: str
 
 
-def pair_task(catalogue: Catalogue, pair_id: str, settings: SiteSettings) -> PairTask:
+def pair_task(catalogue: Catalogue, pair_id: str, settings: SiteSettings,
+              predicted: bool = False) -> PairTask:
     pair = catalogue.pairs[pair_id]
     components = {cid: catalogue.components[cid] for cid in (pair.component1, pair.component2)}
     part = Catalogue(root=catalogue.root, references=catalogue.references,
                      components=components, pairs={pair_id: pair})
-    return PairTask(pair_id, part, settings)
+    return PairTask(pair_id, part, settings, predicted)
 
 
 def component_task(catalogue: Catalogue, component_id: str,
@@ -65,9 +70,16 @@ def component_task(catalogue: Catalogue, component_id: str,
 
 
 def run_pair(task: PairTask) -> PairOutput:
-    """Compute one pair and draw its figures."""
+    """Compute one pair (and, for a fitted pair, the predictive model's second opinion when
+    the settings ask for it) and draw its figures."""
     results = compute_pair(task.catalogue, task.catalogue.pairs[task.pair_id])
-    return PairOutput(results, pair_figures(results, task.settings), code_version())
+    if task.predicted:
+        return PairOutput(results, predicted_figure(results, task.settings), None,
+                          code_version())
+    opinion = (second_opinion(task.catalogue, results, task.settings.summary_pressure_Pa)
+               if task.settings.second_opinion else None)
+    return PairOutput(results, pair_figures(results, task.settings, opinion), opinion,
+                      code_version())
 
 
 def run_component(task: ComponentTask) -> ComponentOutput:

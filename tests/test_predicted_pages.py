@@ -1,0 +1,87 @@
+"""Predicted pair pages: badged as predictions on the page, in the index, in search titles
+and in atlas.json; one combined figure; the combinations without a page say why.
+
+References: common practice (a prediction is never presented as fitted data; a missing
+group or parameter is a reason, never a silent zero).
+"""
+
+from __future__ import annotations
+
+import dataclasses
+import json
+
+import pytest
+
+from builder.analysis.results import PairResults, compute_pair
+from builder.catalogue.loader import Catalogue
+from builder.errors import AtlasError
+from builder.site.content import SiteContent, generate
+from builder.site.predicted import NOT_BUILT, select_predicted
+from builder.site.settings import SiteSettings, load_settings
+
+FITTED = ("ethanol--water",)
+AMONG = ("water", "n-heptane", "ethanol")
+
+
+@pytest.fixture(scope="module")
+def built(catalogue: Catalogue) -> tuple[SiteContent, dict[str, PairResults], set[str]]:
+    selection = select_predicted(catalogue, AMONG)
+    atlas = {pid: compute_pair(catalogue, catalogue.pairs[pid]) for pid in FITTED}
+    atlas.update((pid, compute_pair(catalogue, r)) for pid, r in selection.records.items())
+    _view, content = generate(SiteSettings(second_opinion=False), catalogue, atlas, workers=1,
+                              selection=selection)
+    return content, atlas, set(selection.records)
+
+
+def test_selection_among_components(catalogue: Catalogue) -> None:
+    selection = select_predicted(catalogue, AMONG)
+    # Three components: three combinations, one of them fitted (ethanol-water).
+    assert set(selection.records) == {"ethanol--n-heptane", "n-heptane--water"}
+    assert all(r.quality == "predicted" for r in selection.records.values())
+    assert selection.reason("water", "toluene") == NOT_BUILT
+    assert select_predicted(catalogue, ()).records == {}
+    with pytest.raises(AtlasError, match="no-such-thing"):
+        select_predicted(catalogue, ("water", "no-such-thing"))
+
+
+def test_unpredictable_combinations_are_listed_with_the_reason(catalogue: Catalogue) -> None:
+    water = dataclasses.replace(catalogue.components["water"], groups=None)
+    bare = dataclasses.replace(catalogue, components={**catalogue.components, "water": water})
+    selection = select_predicted(bare, AMONG)
+    assert set(selection.records) == {"ethanol--n-heptane"}
+    assert [(u.component1, u.component2) for u in selection.unpredictable] == [
+        ("n-heptane", "water")]
+    assert selection.reason("water", "n-heptane").startswith("cannot be predicted: ")
+    assert "water" in selection.reason("water", "n-heptane")
+
+
+def test_predicted_pages_are_badged_everywhere(built: tuple) -> None:
+    content, _atlas, predicted = built
+    files = content.files
+    page = files["pairs/n-heptane--water.md"].decode()
+    assert 'title: "n-Heptane + Water (predicted)"' in page or "(predicted)" in page.split(
+        "\n---", 1)[0]
+    assert "atlas-predicted" in page and "Prediction, not fitted data" in page
+    assert "UNIFAC" in page
+    figures = [p for p in files if p.startswith("pairs/n-heptane--water/") and p.endswith(".svg")]
+    assert len(figures) == 1 and "txy-xy-" in figures[0]  # one combined figure
+    fitted = [p for p in files if p.startswith("pairs/ethanol--water/") and p.endswith(".svg")]
+    assert len(fitted) >= 5
+    index = files["index.md"].decode()
+    assert index.count('data-quality="predicted"') == len(predicted)
+    assert index.count('data-quality="fitted"') == len(FITTED)
+    assert 'id="atlas-quality"' in index
+    data = json.loads(files["atlas.json"])
+    by_id = {p["id"]: p for p in data["pairs"]}
+    assert by_id["n-heptane--water"]["quality"] == "predicted"
+    assert "UNIFAC" in by_id["n-heptane--water"]["model"]
+    assert by_id["ethanol--water"]["quality"] != "predicted"
+    listing = files["unpredictable.md"].decode()
+    assert "Combinations that cannot be predicted" in listing
+    water = files["components/water.md"].decode()
+    assert 'data-quality="predicted"' in water and 'data-quality="fitted"' in water
+
+
+def test_shipped_settings_leave_predicted_pages_to_the_lead() -> None:
+    """The full atlas with predicted pages is thousands of pages: a setting decides."""
+    assert load_settings().predicted_pairs in ((), ("all",))
