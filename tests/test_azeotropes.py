@@ -42,6 +42,9 @@ def test_recorded_azeotropes_at_one_atmosphere(catalogue: Catalogue,
     for pair in catalogue.pairs.values():
         if not pair.recorded:
             continue
+        if not (any(abs(r.P_Pa - ATM) <= 1.0 for r in pair.recorded.azeotropes)
+                or any(abs(P - ATM) < 1.0 for P in pair.recorded.zeotropic_at_Pa)):
+            continue  # nothing recorded at 101.325 kPa (e.g. a high-pressure pair)
         at_atm = atlas_results[pair.id].at_atmospheric()
         assert at_atm is not None, pair.id
         for recorded in pair.recorded.azeotropes:

@@ -28,7 +28,7 @@ def built(catalogue: Catalogue) -> tuple[SiteContent, dict[str, PairResults], se
     selection = select_predicted(catalogue, AMONG)
     atlas = {pid: compute_pair(catalogue, catalogue.pairs[pid]) for pid in FITTED}
     atlas.update((pid, compute_pair(catalogue, r)) for pid, r in selection.records.items())
-    _view, content = generate(SiteSettings(second_opinion=False), catalogue, atlas, workers=1,
+    _view, content = generate(SiteSettings(second_opinion=False), catalogue, atlas,
                               selection=selection)
     return content, atlas, set(selection.records)
 
