@@ -8,10 +8,12 @@ site, byte for byte, whichever way it is built) and "common practice"
 from __future__ import annotations
 
 import os
+import queue
 import shutil
 import signal
 import subprocess
 import sys
+import threading
 import time
 from pathlib import Path
 
@@ -172,11 +174,29 @@ def test_killed_build_leaves_the_site(published: tuple[Path, Path, dict[str, byt
         text=True, env=env, cwd=REPO)
     assert process.stdout is not None
     marker = STAGE_MARKER.format(stage)
-    seen = []
-    for line in process.stdout:
-        seen.append(line.rstrip("\n"))
-        if line.rstrip("\n") == marker:
-            time.sleep(delay_s)
+    lines: queue.Queue[str | None] = queue.Queue()
+
+    def read() -> None:
+        assert process.stdout is not None
+        for line in process.stdout:
+            lines.put(line.rstrip("\n"))
+        lines.put(None)
+
+    threading.Thread(target=read, daemon=True).start()
+    seen: list[str] = []
+    while (line := lines.get(timeout=600)) is not None:
+        seen.append(line)
+        if line == marker:
+            # Kill within the stage: after delay_s, or as soon as the next stage starts
+            # (on a fast machine a small catalogue's assembly can take less than delay_s).
+            deadline = time.monotonic() + delay_s
+            while (left := deadline - time.monotonic()) > 0:
+                try:
+                    following = lines.get(timeout=left)
+                except queue.Empty:
+                    break
+                if following is None or following.startswith(STAGE_MARKER.format("")):
+                    break
             process.send_signal(signal.SIGKILL)
             break
     process.wait(timeout=60)
