@@ -43,8 +43,9 @@ __all__ = ["RESULTS_VERSION", "Check", "ConditionResult", "PairResults", "comput
 def _part(result: eq.EquilibriumResult, part: slice) -> eq.EquilibriumResult:
     """The points ``part`` of a solved set of bubble points (``phi`` is None for an ideal
     vapour)."""
-    values = (getattr(result, f.name) for f in dataclasses.fields(eq.EquilibriumResult))
-    return eq.EquilibriumResult(*(None if v is None else v[part] for v in values))
+    values = {f.name: getattr(result, f.name) for f in dataclasses.fields(eq.EquilibriumResult)}
+    return eq.EquilibriumResult(**{k: None if v is None else v[part]
+                                   for k, v in values.items()})
 
 
 def _extrapolated(pair: PairRecord, c1: Component, c2: Component,
