@@ -45,7 +45,7 @@ def _part(result: eq.EquilibriumResult, part: slice) -> eq.EquilibriumResult:
     vapour)."""
     values = {f.name: getattr(result, f.name) for f in dataclasses.fields(eq.EquilibriumResult)}
     return eq.EquilibriumResult(**{k: None if v is None else v[part]
-                                   for k, v in values.items()})
+                                   for k, v in values.items()})  # type: ignore[arg-type]
 
 
 def _extrapolated(pair: PairRecord, c1: Component, c2: Component,
