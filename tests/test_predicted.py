@@ -9,6 +9,7 @@ practice) on predicted pairs; atlas calc's JSON contract (project convention).
 
 from __future__ import annotations
 
+import dataclasses
 import json
 from math import comb
 
@@ -82,11 +83,15 @@ def test_compute_pair_runs_all_analyses(catalogue: Catalogue) -> None:
 
 
 def test_compute_pair_with_an_ideal_vapour(catalogue: Catalogue) -> None:
-    # Phenol has no virial constants in the catalogue, so the pair's vapour is ideal and
-    # its bubble points carry no fugacity coefficients (phi is None, not an array).
-    record = predicted_pair(catalogue.components["n-pentane"], catalogue.components["phenol"])
+    # A component without virial constants (phenol with its virial block taken away, since
+    # every catalogue component now has one) makes the pair's vapour ideal, and its bubble
+    # points carry no fugacity coefficients (phi is None, not an array).
+    phenol = dataclasses.replace(catalogue.components["phenol"], virial=None)
+    without_virial = dataclasses.replace(
+        catalogue, components={**catalogue.components, "phenol": phenol})
+    record = predicted_pair(catalogue.components["n-pentane"], phenol)
     assert record.vapour is None
-    results = compute_pair(catalogue, record)
+    results = compute_pair(without_virial, record)
     (isobar,) = results.isobars
     assert isobar.curve.vapour_model == "ideal-gas"
     assert isobar.curve.converged.all() and isobar.quicklook is not None

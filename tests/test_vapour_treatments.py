@@ -31,6 +31,48 @@ _CHEMICALS_CLASS = {
 }
 
 
+# The chemicals package's method name for each publication our virial constants cite.
+_VC_METHOD = {"iupac-critical": "IUPAC", "crc-handbook-95": "CRC"}
+_DIPOLE_METHOD = {"poling-2001": "POLING", "nist-cccbdb": "CCCBDB", "muller-2012": "MULLER"}
+
+
+def test_virial_constants_match_the_tables_they_were_transcribed_from(
+        catalogue: Catalogue) -> None:
+    """Reference: the chemicals package's copies of the cited tables (chemicals.critical.Vc
+    with method IUPAC or CRC; chemicals.dipole.dipole_moment with method POLING, CCCBDB or
+    MULLER), for every critical volume and every dipole moment not marked as recalled."""
+    from chemicals.critical import Vc
+    from chemicals.dipole import dipole_moment
+
+    volumes = dipoles = 0
+    for component in catalogue.components.values():
+        v = component.virial
+        if v is None:
+            continue
+        source = v.sources["critical_volume"]
+        if not source.from_memory and source.ref in _VC_METHOD:
+            table = Vc(component.cas, method=_VC_METHOD[source.ref])
+            assert v.critical_volume_m3_per_mol == pytest.approx(table, rel=1e-3), component.id
+            volumes += 1
+        source = v.sources.get("dipole_moment")
+        if source is not None and not source.from_memory and source.ref in _DIPOLE_METHOD:
+            table = dipole_moment(component.cas, method=_DIPOLE_METHOD[source.ref])
+            assert v.dipole_debye == pytest.approx(table, abs=0.006), component.id
+            dipoles += 1
+    assert volumes > 70 and dipoles > 40
+
+
+def test_every_component_but_the_carboxylic_acids_has_virial_constants(
+        catalogue: Catalogue) -> None:
+    """The virial vapour is the default treatment, so a component without its constants
+    drops every one of its pairs to an ideal-gas vapour. The acids (a COOH group) get
+    theirs with an associating vapour. Project convention."""
+    missing = sorted(c.id for c in catalogue.components.values()
+                     if c.virial is None
+                     and not (c.groups and c.groups.unifac and "COOH" in c.groups.unifac))
+    assert missing == []
+
+
 def test_pure_second_virial_coefficients_against_chemicals(catalogue: Catalogue) -> None:
     """Reference: chemicals.virial.BVirial_Tsonopoulos_extended, same equation: with our a and
     b passed in for every component, and with chemicals deriving a and b itself (same rules)
