@@ -117,8 +117,15 @@ def _geometry(match: re.Match[str]) -> str:
 
 
 def _style(match: re.Match[str]) -> str:
-    value = re.sub(r"\s*([:;])\s*", r"\1", match.group(1)).rstrip(";")
+    value = _STYLE_SPACE.sub(_separator, match.group(1)).rstrip(";")
     return f' style="{value}"' if value else ""
+
+
+_STYLE_SPACE = re.compile(r"\s*([:;])\s*")
+
+
+def _separator(match: re.Match[str]) -> str:
+    return match.group(1)
 
 
 def compact(svg: bytes) -> bytes:
