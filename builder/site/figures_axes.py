@@ -16,6 +16,7 @@ figure looks the same; its SVG is smaller (a tick mark is one ``<use>``).
 
 from __future__ import annotations
 
+from collections.abc import Callable
 from functools import lru_cache
 from typing import Any, cast
 
@@ -99,7 +100,7 @@ def _ticks(axis: Axis, minor: bool) -> tuple[list[float], list[str]]:
             [label for label, keep in zip(labels, inside, strict=True) if keep])
 
 
-def _draw_axis(ax: Axes, axis: Axis, which: str) -> None:
+def _draw_axis(ax: Axes, axis: Axis, which: str) -> Callable[[], None]:
     """Tick marks, labels and grid of one axis (``which``: "x" or "y")."""
     rc: Any = mpl.rcParams
     label_size = FontProperties(size=rc[f"{which}tick.labelsize"]).get_size_in_points()
@@ -167,15 +168,29 @@ def _draw_axis(ax: Axes, axis: Axis, which: str) -> None:
                               + ScaledTranslation(0, 2 / 72, ax.figure.dpi_scale_trans)))
     if texts:
         ax.add_artist(_Labels(ax, texts))
+    major, minor_locator = axis.get_major_locator(), axis.get_minor_locator()
     axis.set_major_locator(NullLocator())
     axis.set_minor_locator(NullLocator())
     axis.labelpad = float(rc["axes.labelpad"]) + reach
 
+    def restore() -> None:
+        axis.set_major_locator(major)
+        axis.set_minor_locator(minor_locator)
 
-def light_axes(ax: Axes) -> None:
+    return restore
+
+
+def light_axes(ax: Axes) -> Callable[[], None]:
     """Replace the matplotlib ticks and grid of ``ax`` by :mod:`this module's <.figures_axes>`
-    few artists (call once, after the axes' limits and scales are final)."""
+    few artists (call once, after the axes' limits and scales are final); returns what puts
+    the axes' tick locators back after the figure is written."""
     ax.get_xlim()  # settles any pending autoscaling before the ticks are read
     ax.get_ylim()
-    _draw_axis(ax, ax.xaxis, "x")
-    _draw_axis(ax, ax.yaxis, "y")
+    restore_x = _draw_axis(ax, ax.xaxis, "x")
+    restore_y = _draw_axis(ax, ax.yaxis, "y")
+
+    def restore() -> None:
+        restore_x()
+        restore_y()
+
+    return restore

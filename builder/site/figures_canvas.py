@@ -23,9 +23,11 @@ from typing import Any
 
 import matplotlib as mpl
 from matplotlib.axes import Axes
+from matplotlib.axis import Axis
 from matplotlib.backends.backend_svg import FigureCanvasSVG, RendererSVG
 from matplotlib.figure import Figure as MplFigure
 from matplotlib.font_manager import FontProperties, findfont, get_font
+from matplotlib.ticker import AutoLocator, NullFormatter, NullLocator, ScalarFormatter
 from matplotlib.transforms import Bbox
 
 from builder.site.figures_axes import light_axes
@@ -96,9 +98,13 @@ def raw_svg(fig: MplFigure) -> bytes:
 def svg_bytes(fig: MplFigure) -> bytes:
     """The figure's compact SVG (:func:`~builder.site.svg.compact`), its ticks, tick labels
     and grid drawn by :func:`~builder.site.figures_axes.light_axes`."""
-    for ax in fig.axes:
-        light_axes(ax)
-    return compact(raw_svg(fig))
+    restore = [light_axes(ax) for ax in fig.axes]
+    try:
+        raw = raw_svg(fig)
+    finally:
+        for step in restore:
+            step()
+    return compact(raw)
 
 
 class Kept:
@@ -130,6 +136,15 @@ class Kept:
         return fig, list(fig.axes)
 
 
+def _plain_linear(axis: Axis) -> bool:
+    """Whether a linear axis still has the ticks a new axis has (then its scale need not be
+    set again, which costs as much as drawing a line)."""
+    return (type(axis.get_major_locator()) is AutoLocator
+            and type(axis.get_major_formatter()) is ScalarFormatter
+            and type(axis.get_minor_locator()) is NullLocator
+            and type(axis.get_minor_formatter()) is NullFormatter)
+
+
 def _reset(ax: Axes) -> None:
     """Take everything drawn off ``ax`` and set it back as new: titles, axis labels, scales,
     limits, aspect and colour cycle (what the atlas figures change; cheaper than
@@ -146,8 +161,10 @@ def _reset(ax: Axes) -> None:
     labelpad = float(mpl.rcParams["axes.labelpad"])
     ax.set_xlabel("", labelpad=labelpad)
     ax.set_ylabel("", labelpad=labelpad)
-    ax.set_xscale("linear")
-    ax.set_yscale("linear")
+    if ax.get_xscale() != "linear" or not _plain_linear(ax.xaxis):
+        ax.set_xscale("linear")
+    if ax.get_yscale() != "linear" or not _plain_linear(ax.yaxis):
+        ax.set_yscale("linear")
     ax.set_aspect("auto")
     ax.set_prop_cycle(None)
     ax.dataLim.set(Bbox.null())
