@@ -31,6 +31,10 @@ Regenerated when the virial vapour (second virial coefficients and Poynting fact
 became the default vapour treatment and four pairs moved to Peng-Robinson: a deliberate
 change of results (against the ideal-gas snapshot, temperatures moved by up to 2.2 K,
 mostly a few tenths of a kelvin at 101.325 kPa, compositions by up to 0.033).
+
+Extended, not regenerated, when the five carboxylic-acid pairs came back with the
+associating vapour: their entries are those pairs' first results; every other entry is
+unchanged.
 """
 
 from __future__ import annotations
