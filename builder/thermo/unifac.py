@@ -180,24 +180,45 @@ class _Prepared:
         if self.c is not None:
             exponent = exponent + self.c * T
         psi = np.exp(-exponent)                                         # (*ST, M, M)
-        M = self.nuQ.shape[1]
-        pure_G = self._G(self.theta_pure.reshape(2, *([1] * T_a.ndim), M), psi)
-        pure = np.sum(self.nuQ.reshape(2, *([1] * T_a.ndim), M) * pure_G, axis=-1)  # (2, *ST)
+        # Pure components: the two Θ rows against every Ψ, (*ST, 2, M).
+        pure = np.sum(self.nuQ * _G_rows(self.theta_pure, psi), axis=-1)  # (*ST, 2)
         mix = x1v * self.nuQ[0] + x2v * self.nuQ[1]                     # (*Sx, M)
-        G = self._G(mix / mix.sum(axis=-1, keepdims=True), psi)         # (*S, M)
+        G = _G_mixture(mix / mix.sum(axis=-1, keepdims=True), psi)      # (*S, M)
         # G_M of a class absent from i is multiplied by Σ ν Q = 0 (finite: Ψ > 0).
-        ln_g1 = ln_c[..., 0] + G @ self.nuQ[0] - pure[0]
-        ln_g2 = ln_c[..., 1] + G @ self.nuQ[1] - pure[1]
+        ln_g1 = ln_c[..., 0] + G @ self.nuQ[0] - pure[..., 0]
+        ln_g2 = ln_c[..., 1] + G @ self.nuQ[1] - pure[..., 1]
         return (np.broadcast_to(ln_g1, shape).copy() if ln_g1.shape != shape else ln_g1,
                 np.broadcast_to(ln_g2, shape).copy() if ln_g2.shape != shape else ln_g2)
 
-    @staticmethod
-    def _G(theta: FloatArray, psi: FloatArray) -> FloatArray:
-        """``G_M = 1 - ln(Σ_N Θ_N Ψ_NM) - Σ_N Θ_N Ψ_MN / Σ_L Θ_L Ψ_LN`` for area
-        fractions ``theta`` (..., M) and ``Ψ`` (..., M, M), broadcasting."""
-        S = np.einsum("...n,...nm->...m", theta, psi)                   # Σ_N Θ_N Ψ_NM
-        inner = np.einsum("...mn,...n->...m", psi, theta / S)           # Σ_N Θ_N Ψ_MN / S_N
-        return np.asarray(1.0 - np.log(S) - inner, dtype=float)
+
+def _G_rows(theta: FloatArray, psi: FloatArray) -> FloatArray:
+    """``G_M = 1 - ln(Σ_N Θ_N Ψ_NM) - Σ_N Θ_N Ψ_MN / Σ_L Θ_L Ψ_LN`` for every row of
+    ``theta`` (R, M) against every ``Ψ`` of ``psi`` (*B, M, M): (*B, R, M).
+
+    Matrix products with the rows as the matrix dimension (one product per ``Ψ``).
+    """
+    S = theta @ psi                                                     # Σ_N Θ_N Ψ_NM
+    return np.asarray(1.0 - np.log(S) - (theta / S) @ np.swapaxes(psi, -1, -2), dtype=float)
+
+
+def _G_mixture(theta: FloatArray, psi: FloatArray) -> FloatArray:
+    """:func:`_G_rows`'s ``G`` for area fractions ``theta`` (*Sx, M) and ``Ψ`` (*ST, M, M)
+    broadcast together: (*S, M).
+
+    Three layouts, by speed: one temperature for every composition (a matrix
+    product over all rows), a composition grid against a column of temperatures
+    (rows per temperature), and one temperature per composition (element-wise).
+    """
+    Sx, ST = theta.shape[:-1], psi.shape[:-2]
+    M = theta.shape[-1]
+    if not ST:
+        return _G_rows(theta.reshape(-1, M), psi).reshape(*Sx, M)
+    if len(Sx) == len(ST) == 2 and Sx[0] == 1 and ST[1] == 1:
+        rows = _G_rows(theta.reshape(-1, M), psi.reshape(ST[0], M, M))  # (N, W, M)
+        return rows.reshape(ST[0], Sx[1], M)
+    S = np.einsum("...n,...nm->...m", theta, psi)
+    inner = np.einsum("...mn,...n->...m", psi, theta / S)
+    return np.asarray(1.0 - np.log(S) - inner, dtype=float)
 
 
 @dataclass(frozen=True, eq=False)
