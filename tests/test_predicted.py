@@ -81,6 +81,17 @@ def test_compute_pair_runs_all_analyses(catalogue: Catalogue) -> None:
     assert all(check.passed for check in results.checks)
 
 
+def test_compute_pair_with_an_ideal_vapour(catalogue: Catalogue) -> None:
+    # Phenol has no virial constants in the catalogue, so the pair's vapour is ideal and
+    # its bubble points carry no fugacity coefficients (phi is None, not an array).
+    record = predicted_pair(catalogue.components["n-pentane"], catalogue.components["phenol"])
+    assert record.vapour is None
+    results = compute_pair(catalogue, record)
+    (isobar,) = results.isobars
+    assert isobar.curve.vapour_model == "ideal-gas"
+    assert isobar.curve.converged.all() and isobar.quicklook is not None
+
+
 @settings(max_examples=40, deadline=None)
 @given(data=st.data(), z=st.floats(0.0, 1.0), P_kPa=st.floats(20.0, 300.0))
 def test_bubble_below_dew_and_round_trip(data: st.DataObject, z: float, P_kPa: float,

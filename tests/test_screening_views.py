@@ -10,9 +10,11 @@ from __future__ import annotations
 import re
 
 import pytest
+import yaml
 
 from builder.analysis.results import PairResults
 from builder.catalogue.loader import Catalogue
+from builder.catalogue.reader import _StrictLoader
 from builder.site.context import AtlasView, build_views, summary_condition
 from builder.site.families import FAMILIES, family, family_of_groups
 from builder.site.matrix import MARKS, behaviour_matrix, family_starts
@@ -143,3 +145,17 @@ def test_screening_pages_render_light(catalogue: Catalogue,
     assert table.count('<tr data-behaviour="') == n - 1
     assert 'data-behaviour="heterogeneous" data-quality="fitted"' in table
     assert re.search(r'<option value="heterogeneous">', water)
+
+
+def test_every_page_is_left_out_of_the_theme_search(catalogue: Catalogue,
+                                                    small: tuple[AtlasView, dict]) -> None:
+    # The atlas writes its own compact index (builder/site/search.py); a page the theme's
+    # search plugin does not skip is parsed in full for nothing (a component page's partner
+    # table made that a fifth of the assembly time).  A second "search:" key in the front
+    # matter once overrode "exclude: true": duplicate keys are refused here.
+    view, atlas = small
+    pages = render_pages(view, {}, {}, {}, partners=partner_rows(view, catalogue, atlas))
+    for path, text in pages.items():
+        front = text.split("---\n", 2)[1]
+        meta = yaml.load(front, Loader=_StrictLoader)
+        assert meta["search"] == {"exclude": True}, path

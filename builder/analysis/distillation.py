@@ -207,7 +207,7 @@ def _guide_grid(x_bottom: float, x_top: float, points: int = 201) -> FloatArray:
 
 def _reflux_grids(x_bottom: float, feed: float, x_top: float) -> tuple[FloatArray, FloatArray]:
     """Liquid compositions searched for the rectifying and the stripping pinch."""
-    return np.linspace(feed, x_top, 801)[:-1], np.linspace(x_bottom, feed, 801)[1:]
+    return np.linspace(feed, x_top, 201)[:-1], np.linspace(x_bottom, feed, 201)[1:]
 
 
 def _prefetched(y_star: Equilibrium, *grids: FloatArray) -> Equilibrium:

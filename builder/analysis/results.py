@@ -41,9 +41,11 @@ __all__ = ["RESULTS_VERSION", "Check", "ConditionResult", "PairResults", "comput
 
 
 def _part(result: eq.EquilibriumResult, part: slice) -> eq.EquilibriumResult:
-    """The points ``part`` of a solved set of bubble points."""
-    return eq.EquilibriumResult(*(getattr(result, f.name)[part]
-                                  for f in dataclasses.fields(eq.EquilibriumResult)))
+    """The points ``part`` of a solved set of bubble points (``phi`` is None for an ideal
+    vapour)."""
+    values = {f.name: getattr(result, f.name) for f in dataclasses.fields(eq.EquilibriumResult)}
+    return eq.EquilibriumResult(**{k: None if v is None else v[part]
+                                   for k, v in values.items()})  # type: ignore[arg-type]
 
 
 def _extrapolated(pair: PairRecord, c1: Component, c2: Component,

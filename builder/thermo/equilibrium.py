@@ -33,7 +33,7 @@ import numpy as np
 from numpy.typing import ArrayLike, NDArray
 
 from builder.thermo.activity import ActivityModel, Swapped
-from builder.thermo.solvers import Function, expand_bracket, solve_bracketed
+from builder.thermo.solvers import Function, RootResult, expand_bracket_values, solve_bracketed
 from builder.thermo.vapour import (
     IDEAL_GAS,
     IdealGas,
@@ -345,19 +345,20 @@ def dew_pressure(system: BinarySystem, y1: ArrayLike, T_K: ArrayLike) -> Equilib
     return _reshape(EquilibriumResult(T, P, x, y, ln_g1, ln_g2, ok, phi1, phi2), shape)
 
 
-def _temperature_start(system: BinarySystem, P: FloatArray, z1: FloatArray,
-                       residual: Function) -> tuple[FloatArray, FloatArray, FloatArray]:
-    """Bracket and first guess for a temperature solve at ``P``.
+def _temperature_solve(system: BinarySystem, P: FloatArray, z1: FloatArray,
+                       residual: Function) -> RootResult:
+    """Solve ``residual(T) = 0`` for a temperature at ``P``, every point at once.
 
     The bracket starts at the pure components' saturation temperatures and is
     widened until ``residual`` changes sign (an azeotrope may boil outside
-    that span); the guess interpolates the two by the composition ``z1``.
+    that span); the first guess interpolates the two by the composition ``z1``.
     """
     T1 = np.asarray(system.psat1.temperature_K(P), dtype=float)
     T2 = np.asarray(system.psat2.temperature_K(P), dtype=float)
-    lo, hi = expand_bracket(residual, np.fmin(T1, T2) * 0.995, np.fmax(T1, T2) * 1.005,
-                            factor=1.02)
-    return lo, hi, np.clip(z1 * T1 + (1.0 - z1) * T2, lo, hi)
+    lo, hi, f_lo, f_hi = expand_bracket_values(
+        residual, np.fmin(T1, T2) * 0.995, np.fmax(T1, T2) * 1.005, factor=1.02)
+    guess = np.clip(z1 * T1 + (1.0 - z1) * T2, lo, hi)
+    return solve_bracketed(residual, lo, hi, guess, f_lo=f_lo, f_hi=f_hi)
 
 
 def bubble_temperature(system: BinarySystem, x1: ArrayLike, P_Pa: ArrayLike) -> EquilibriumResult:
@@ -377,8 +378,7 @@ def bubble_temperature(system: BinarySystem, x1: ArrayLike, P_Pa: ArrayLike) -> 
         p1, p2, _, _, _, _ = _bubble_vapour(system, x[mask], T, P[mask])
         return np.log(p1 + p2) - ln_P[mask]
 
-    lo, hi, guess = _temperature_start(system, P, x, residual)
-    solved = solve_bracketed(residual, lo, hi, guess)
+    solved = _temperature_solve(system, P, x, residual)
     T = solved.root
     _, _, ln_g1, ln_g2, y, inner_ok = _bubble_vapour(system, x, T, P)
     ok = solved.converged & np.isfinite(y) & inner_ok
@@ -409,8 +409,7 @@ def dew_temperature(system: BinarySystem, y1: ArrayLike, P_Pa: ArrayLike) -> Equ
         p1, p2, _, _ = _partial_pressures(system, x, T, ln_c)
         return np.log(p1 + p2) - ln_P[mask]
 
-    lo, hi, guess = _temperature_start(system, P, y, residual)
-    solved = solve_bracketed(residual, lo, hi, guess)
+    solved = _temperature_solve(system, P, y, residual)
     T = solved.root
     everything = np.ones_like(y, dtype=bool)
     x, inner_ok = _liquid_for_vapour(system, y, T, correction(T, everything))

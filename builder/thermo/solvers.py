@@ -25,7 +25,7 @@ from dataclasses import dataclass
 import numpy as np
 from numpy.typing import NDArray
 
-__all__ = ["RootResult", "expand_bracket", "solve_bracketed"]
+__all__ = ["RootResult", "expand_bracket", "expand_bracket_values", "solve_bracketed"]
 
 FloatArray = NDArray[np.float64]
 Function = Callable[[FloatArray, NDArray[np.bool_]], FloatArray]
@@ -58,6 +58,8 @@ def solve_bracketed(
     ftol: float = 1e-13,
     maxiter: int = 100,
     relative_step: float = 1e-7,
+    f_lo: FloatArray | None = None,
+    f_hi: FloatArray | None = None,
 ) -> RootResult:
     """Solve ``f(u) = 0`` for every point, each inside its own bracket.
 
@@ -77,6 +79,9 @@ def solve_bracketed(
         Relative tolerance on ``u`` (scaled by ``max(|u|, 1)``).
     ftol : float
         Absolute tolerance on ``f``; the residual should be dimensionless.
+    f_lo, f_hi : ndarray, optional
+        ``f`` at the bracket ends when the caller already has it (as
+        :func:`expand_bracket_values` returns it), saving two evaluations.
 
     Examples
     --------
@@ -91,8 +96,8 @@ def solve_bracketed(
     hi = np.array(hi, dtype=float, copy=True)
     n = lo.size
     all_points = np.ones(n, dtype=bool)
-    f_lo = _evaluate(f, lo, all_points)
-    f_hi = _evaluate(f, hi, all_points)
+    f_lo = _evaluate(f, lo, all_points) if f_lo is None else np.array(f_lo, dtype=float)
+    f_hi = _evaluate(f, hi, all_points) if f_hi is None else np.array(f_hi, dtype=float)
     # Orient so that f(lo) < 0 < f(hi).
     swap = f_lo > 0
     lo[swap], hi[swap] = hi[swap], lo[swap].copy()
@@ -184,18 +189,45 @@ def expand_bracket(
     ``u``: ``lo`` is divided by ``factor`` while ``f(lo) > 0`` and ``hi``
     multiplied while ``f(hi) < 0``.  Points that cannot be bracketed keep
     their last bracket; :func:`solve_bracketed` then reports them unconverged.
+
+    >>> lo, hi = expand_bracket(lambda u, m: u - 10.0, np.array([1.0]), np.array([2.0]),
+    ...                         factor=2.0)
+    >>> lo.tolist(), hi.tolist()
+    ([1.0], [16.0])
+    """
+    lo, hi, _, _ = expand_bracket_values(f, lo, hi, factor=factor, lower_limit=lower_limit,
+                                         max_expansions=max_expansions)
+    return lo, hi
+
+
+def expand_bracket_values(
+    f: Function,
+    lo: FloatArray,
+    hi: FloatArray,
+    *,
+    factor: float = 1.1,
+    lower_limit: float = 1e-300,
+    max_expansions: int = 60,
+) -> tuple[FloatArray, FloatArray, FloatArray, FloatArray]:
+    """:func:`expand_bracket`, also returning ``f(lo)`` and ``f(hi)`` of the final bracket.
+
+    Only the ends that moved are evaluated again, and the values can be handed to
+    :func:`solve_bracketed` so that it does not evaluate the ends once more.
     """
     lo = np.array(lo, dtype=float, copy=True)
     hi = np.array(hi, dtype=float, copy=True)
-    n = lo.size
+    everything = np.ones(lo.size, dtype=bool)
+    f_lo = _evaluate(f, lo, everything)
+    f_hi = _evaluate(f, hi, everything)
     for _ in range(max_expansions):
-        everything = np.ones(n, dtype=bool)
-        f_lo = _evaluate(f, lo, everything)
-        f_hi = _evaluate(f, hi, everything)
         low_bad = ~(f_lo <= 0)
         high_bad = ~(f_hi >= 0)
         if not (np.any(low_bad) or np.any(high_bad)):
             break
-        lo[low_bad] = np.maximum(lo[low_bad] / factor, lower_limit)
-        hi[high_bad] = hi[high_bad] * factor
-    return lo, hi
+        if np.any(low_bad):
+            lo[low_bad] = np.maximum(lo[low_bad] / factor, lower_limit)
+            f_lo[low_bad] = f(lo[low_bad], low_bad)
+        if np.any(high_bad):
+            hi[high_bad] = hi[high_bad] * factor
+            f_hi[high_bad] = f(hi[high_bad], high_bad)
+    return lo, hi, f_lo, f_hi

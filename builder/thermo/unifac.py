@@ -94,23 +94,48 @@ def unifac_ln_gamma(x1: ArrayLike, T_K: ArrayLike, nu: ArrayLike, R: ArrayLike, 
     return _Prepared.of(nu, R, Q, a, b, c, dortmund).ln_gamma(x1, T_K)
 
 
+def _interaction_classes(a: FloatArray, b: FloatArray, c: FloatArray) -> list[list[int]]:
+    """Subgroups that interact identically, in order of first appearance.
+
+    Two subgroups of one main group have the same ``Ψ`` row and column and ``Ψ = 1``
+    between them, so the residual part depends only on their summed area fraction;
+    computing it per class rather than per subgroup gives the same numbers with
+    fewer exponentials.
+    """
+    k = a.shape[0]
+    params = np.stack([a, b, c])                                       # (3, k, k)
+    classes: list[list[int]] = []
+    for i in range(k):
+        for members in classes:
+            j = members[0]
+            if (np.array_equal(params[:, i, :], params[:, j, :])
+                    and np.array_equal(params[:, :, i], params[:, :, j])
+                    and not params[:, i, j].any() and not params[:, j, i].any()):
+                members.append(i)
+                break
+        else:
+            classes.append([i])
+    return classes
+
+
 @dataclass(frozen=True, eq=False)
 class _Prepared:
     """The composition- and temperature-independent parts of :func:`unifac_ln_gamma`.
 
     Computed once per model, so that one evaluation is a handful of array operations
-    (the solvers call it thousands of times with small arrays).
+    (the solvers call it thousands of times with small arrays).  The residual part is
+    carried per interaction class M (the subgroups of one main group, see
+    :func:`_interaction_classes`): ``ln γi^R = Σ_M (Σ_(k in M) ν_k^(i) Q_k)(G_M - G_M^(i))``
+    with ``ln Γ_k = Q_k G_M`` for k in M.
     """
 
     r: FloatArray            # (2,) ri
     q: FloatArray            # (2,) qi
     r34: FloatArray          # (2,) ri^(3/4) (Dortmund) or ri (original)
-    nuQ: FloatArray          # (2, k) ν_k^(i) Q_k
-    theta_pure: FloatArray   # (2, k) Θ_k in pure i
-    nu: FloatArray           # (2, k)
-    Q: FloatArray            # (k,)
-    a: FloatArray            # (k, k)
-    b: FloatArray | None     # (k, k), None when zero
+    nuQ: FloatArray          # (2, M) Σ_(k in M) ν_k^(i) Q_k
+    theta_pure: FloatArray   # (2, M) Θ_M in pure i
+    a: FloatArray            # (M, M)
+    b: FloatArray | None     # (M, M), None when zero
     c: FloatArray | None
 
     @classmethod
@@ -118,46 +143,82 @@ class _Prepared:
            c: ArrayLike, dortmund: bool) -> _Prepared:
         nu_a = np.asarray(nu, dtype=float)
         R_a, Q_a = np.asarray(R, dtype=float), np.asarray(Q, dtype=float)
+        a_a = np.asarray(a, dtype=float)
         b_a, c_a = np.asarray(b, dtype=float), np.asarray(c, dtype=float)
         r, q = nu_a @ R_a, nu_a @ Q_a
-        nuQ = nu_a * Q_a
+        classes = _interaction_classes(a_a, b_a, c_a)
+        first = [members[0] for members in classes]
+        nuQ = np.stack([(nu_a * Q_a)[:, members].sum(axis=1) for members in classes], axis=1)
+        pick = np.ix_(first, first)
         return cls(r=r, q=q, r34=r**0.75 if dortmund else r, nuQ=nuQ,
-                   theta_pure=nuQ / nuQ.sum(axis=1, keepdims=True), nu=nu_a, Q=Q_a,
-                   a=np.asarray(a, dtype=float), b=b_a if b_a.any() else None,
-                   c=c_a if c_a.any() else None)
+                   theta_pure=nuQ / nuQ.sum(axis=1, keepdims=True), a=a_a[pick],
+                   b=b_a[pick] if b_a.any() else None, c=c_a[pick] if c_a.any() else None)
 
     def ln_gamma(self, x1: ArrayLike, T_K: ArrayLike) -> LnGamma:
-        x1_b, T_b = np.asarray(x1, dtype=float), np.asarray(T_K, dtype=float)
-        if x1_b.shape != T_b.shape:
-            x1_b, T_b = np.broadcast_arrays(x1_b, T_b)
-        shape = x1_b.shape
-        x1v = x1_b.reshape(-1, 1)                                       # (N, 1)
+        """``(ln γ1, ln γ2)`` with ``x1`` and ``T_K`` broadcast together.
+
+        Each part is computed on the shape it depends on and broadcast only at the
+        end: the combinatorial part on ``x1``'s shape, ``Ψ`` and the pure-component
+        residuals on ``T_K``'s shape, so a grid of compositions against a column of
+        temperatures (the tangent-plane test) costs one ``Ψ`` per temperature.
+        """
+        x1_a, T_a = np.asarray(x1, dtype=float), np.asarray(T_K, dtype=float)
+        shape = np.broadcast_shapes(x1_a.shape, T_a.shape)
+        x1v = x1_a[..., None]                                           # (*Sx, 1)
         x2v = 1.0 - x1v
-        # Combinatorial part (columns: component 1, component 2).
-        V = self.r / (x1v * self.r[0] + x2v * self.r[1])                # (N, 2)
+        # Combinatorial part (last axis: component 1, component 2).
+        V = self.r / (x1v * self.r[0] + x2v * self.r[1])                # (*Sx, 2)
         F = self.q / (x1v * self.q[0] + x2v * self.q[1])
         Vp = self.r34 / (x1v * self.r34[0] + x2v * self.r34[1])
         V_F = V / F
         ln_c = 1.0 - Vp + np.log(Vp) - HALF_Z * self.q * (1.0 - V_F + np.log(V_F))
-        # Residual part: Θ in the mixture and in each pure component, stacked (3, N, k).
-        T = T_b.reshape(-1, 1, 1)
+        # Residual part.  Ψ and the pure components depend on T only.
+        T = T_a[..., None, None]
         exponent = self.a / T
         if self.b is not None:
             exponent = exponent + self.b
         if self.c is not None:
             exponent = exponent + self.c * T
-        psi = np.exp(-exponent)                                         # (N, k, k)
-        mix = x1v * self.nuQ[0] + x2v * self.nuQ[1]
-        theta = np.empty((3, *mix.shape))
-        theta[0] = mix / mix.sum(axis=1, keepdims=True)
-        theta[1:] = self.theta_pure[:, None, :]
-        S = np.matmul(theta[:, :, None, :], psi)[:, :, 0, :]           # Σ_m Θ_m Ψ_mk
-        inner = np.matmul(psi, (theta / S)[..., None])[..., 0]          # Σ_m Θ_m Ψ_km / S_m
-        ln_Gamma = self.Q * (1.0 - np.log(S) - inner)                   # (3, N, k)
-        # ln Γ_k^(i) of groups absent from i is multiplied by ν = 0 (finite: Ψ > 0).
-        ln_r1 = (ln_Gamma[0] - ln_Gamma[1]) @ self.nu[0]
-        ln_r2 = (ln_Gamma[0] - ln_Gamma[2]) @ self.nu[1]
-        return ((ln_c[:, 0] + ln_r1).reshape(shape), (ln_c[:, 1] + ln_r2).reshape(shape))
+        psi = np.exp(-exponent)                                         # (*ST, M, M)
+        # Pure components: the two Θ rows against every Ψ, (*ST, 2, M).
+        pure = np.sum(self.nuQ * _G_rows(self.theta_pure, psi), axis=-1)  # (*ST, 2)
+        mix = x1v * self.nuQ[0] + x2v * self.nuQ[1]                     # (*Sx, M)
+        G = _G_mixture(mix / mix.sum(axis=-1, keepdims=True), psi)      # (*S, M)
+        # G_M of a class absent from i is multiplied by Σ ν Q = 0 (finite: Ψ > 0).
+        ln_g1 = ln_c[..., 0] + G @ self.nuQ[0] - pure[..., 0]
+        ln_g2 = ln_c[..., 1] + G @ self.nuQ[1] - pure[..., 1]
+        return (np.broadcast_to(ln_g1, shape).copy() if ln_g1.shape != shape else ln_g1,
+                np.broadcast_to(ln_g2, shape).copy() if ln_g2.shape != shape else ln_g2)
+
+
+def _G_rows(theta: FloatArray, psi: FloatArray) -> FloatArray:
+    """``G_M = 1 - ln(Σ_N Θ_N Ψ_NM) - Σ_N Θ_N Ψ_MN / Σ_L Θ_L Ψ_LN`` for every row of
+    ``theta`` (R, M) against every ``Ψ`` of ``psi`` (*B, M, M): (*B, R, M).
+
+    Matrix products with the rows as the matrix dimension (one product per ``Ψ``).
+    """
+    S = theta @ psi                                                     # Σ_N Θ_N Ψ_NM
+    return np.asarray(1.0 - np.log(S) - (theta / S) @ np.swapaxes(psi, -1, -2), dtype=float)
+
+
+def _G_mixture(theta: FloatArray, psi: FloatArray) -> FloatArray:
+    """:func:`_G_rows`'s ``G`` for area fractions ``theta`` (*Sx, M) and ``Ψ`` (*ST, M, M)
+    broadcast together: (*S, M).
+
+    Three layouts, by speed: one temperature for every composition (a matrix
+    product over all rows), a composition grid against a column of temperatures
+    (rows per temperature), and one temperature per composition (element-wise).
+    """
+    Sx, ST = theta.shape[:-1], psi.shape[:-2]
+    M = theta.shape[-1]
+    if not ST:
+        return _G_rows(theta.reshape(-1, M), psi).reshape(*Sx, M)
+    if len(Sx) == len(ST) == 2 and Sx[0] == 1 and ST[1] == 1:
+        rows = _G_rows(theta.reshape(-1, M), psi.reshape(ST[0], M, M))  # (N, W, M)
+        return rows.reshape(ST[0], Sx[1], M)
+    S = np.einsum("...n,...nm->...m", theta, psi)
+    inner = np.einsum("...mn,...n->...m", psi, theta / S)
+    return np.asarray(1.0 - np.log(S) - inner, dtype=float)
 
 
 @dataclass(frozen=True, eq=False)
