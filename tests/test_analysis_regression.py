@@ -52,9 +52,6 @@ FIELD_TOL = {"pinch_x1": 1e-6}
 
 EXPECTED: dict[str, Any] = json.loads(FIXTURE.read_text(encoding="utf-8"))
 
-# One worker computes the shipped pairs (the azeotrope and check-command tests need them all).
-pytestmark = pytest.mark.xdist_group("shipped-atlas")
-
 
 def _differences(expected: Any, found: Any, where: str, abs_tol: float = ABS_TOL) -> list[str]:
     if isinstance(expected, dict) and isinstance(found, dict):

@@ -35,7 +35,6 @@ def _flat_pair(c: float, margules: Margules) -> eq.BinarySystem:
     return eq.BinarySystem(p1, p2, margules)
 
 
-@pytest.mark.xdist_group("shipped-atlas")  # one worker computes the shipped pairs
 def test_recorded_azeotropes_at_one_atmosphere(catalogue: Catalogue,
                                                atlas_results: dict[str, PairResults]) -> None:
     """Every azeotrope a pair file records at 101.325 kPa (handbook tables) is found within

@@ -19,7 +19,6 @@ from builder.commands.cli import main
 from tests.conftest import ShippedResults
 
 
-@pytest.mark.xdist_group("shipped-atlas")  # one worker computes the shipped pairs
 def test_shipped_catalogue_checks_clean(capsys: pytest.CaptureFixture[str], tmp_path: Path,
                                         monkeypatch: pytest.MonkeyPatch,
                                         shipped_results: ShippedResults) -> None:

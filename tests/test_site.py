@@ -30,10 +30,6 @@ from tests.conftest import SMALL, ShippedResults
 
 pytest.importorskip("material", reason="the site extra is not installed: pip install -e '.[site]'")
 
-# The small and hostile sites are built once, on one worker (the browser test opens the same
-# hostile site).
-pytestmark = pytest.mark.xdist_group("small-sites")
-
 
 @pytest.fixture(scope="module")
 def small_atlas(shipped_results: ShippedResults) -> dict[str, PairResults]:

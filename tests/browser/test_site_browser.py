@@ -136,7 +136,6 @@ def test_methods_page_renders_math_offline(site: Path, watched: Watched) -> None
     watched.check()
 
 
-@pytest.mark.xdist_group("small-sites")  # the hostile site is built on one worker
 def test_hostile_catalogue_text_shows_as_text(hostile_site: Path, watched: Watched) -> None:
     """The hostile site of tests/conftest.py (built once; test_site.py reads its files)."""
     out = hostile_site
