@@ -200,6 +200,9 @@ def build_site(catalogue_dir: Path | str = DEFAULT_CATALOGUE, out_dir: Path | st
         # Predicted pairs (site setting predicted_pairs) are worked on like fitted ones,
         # from a catalogue that holds their predicted records beside the fitted sets.
         selection = select_predicted(catalogue, settings.predicted_pairs)
+        if selection.not_in_catalogue:
+            say(f"  predicted_pairs: {', '.join(selection.not_in_catalogue)} not in this "
+                "catalogue; skipped")
         work_catalogue = replace(catalogue, pairs={**catalogue.pairs, **selection.records})
         pair_ids, component_ids = sorted(work_catalogue.pairs), sorted(catalogue.components)
         pair_keys = {pid: pair_key(work_catalogue, pid, settings) for pid in pair_ids}

@@ -17,7 +17,6 @@ from builder.analysis.predicted import Unpredictable, combinations_without_fitte
 from builder.catalogue.loader import Catalogue
 from builder.catalogue.predictive import CannotPredict, predicted_pair
 from builder.catalogue.records import PairRecord
-from builder.errors import AtlasError
 from builder.site.partners import NOT_BUILT
 
 __all__ = ["ALL", "NOT_BUILT", "PredictedSelection", "select_predicted"]
@@ -34,6 +33,8 @@ class PredictedSelection:
     records: dict[str, PairRecord] = field(default_factory=dict)
     unpredictable: tuple[Unpredictable, ...] = ()
     scope: str = "none"  # "none", "all" or the component ids, in words
+    #: Listed component ids this catalogue does not hold (skipped; the build says so).
+    not_in_catalogue: tuple[str, ...] = ()
 
     def reason(self, c1: str, c2: str) -> str:
         """Why the combination of ``c1`` and ``c2`` has no page."""
@@ -45,16 +46,18 @@ class PredictedSelection:
 
 
 def select_predicted(catalogue: Catalogue, components: tuple[str, ...]) -> PredictedSelection:
-    """The predicted pairs among ``components`` (``("all",)``: every component)."""
+    """The predicted pairs among ``components`` (``("all",)``: every component).
+
+    A listed id the catalogue does not hold is skipped and named in
+    ``not_in_catalogue`` (the list selects among the catalogue's components, and a
+    catalogue built in part -- a preview, a test -- holds only some of them).
+    """
     if not components:
         return PredictedSelection()
     every = components == (ALL,)
     chosen = set(catalogue.components) if every else set(components)
-    unknown = sorted(chosen - set(catalogue.components))
-    if unknown:
-        raise AtlasError(f"site setting 'predicted_pairs': no catalogued component "
-                         f"{', '.join(repr(u) for u in unknown)}; expected 'all', 'none' or "
-                         "a list of component ids")
+    unknown = tuple(sorted(chosen - set(catalogue.components)))
+    chosen -= set(unknown)
     records: dict[str, PairRecord] = {}
     failed: list[Unpredictable] = []
     for a, b in combinations_without_fitted_set(catalogue):
@@ -67,4 +70,5 @@ def select_predicted(catalogue: Catalogue, components: tuple[str, ...]) -> Predi
             continue
         records[record.id] = record
     return PredictedSelection(records=records, unpredictable=tuple(failed),
-                              scope=ALL if every else ", ".join(sorted(chosen)))
+                              scope=ALL if every else ", ".join(sorted(chosen)),
+                              not_in_catalogue=unknown)
