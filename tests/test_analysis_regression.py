@@ -47,8 +47,9 @@ from typing import Any
 
 import pytest
 
-from builder.analysis.results import PairResults
+from builder.catalogue.loader import Catalogue
 from tests.analysis_snapshot import FIXTURE, snapshot
+from tests.conftest import ShippedResults
 
 REL_TOL = 1e-8
 ABS_TOL = 1e-9
@@ -78,13 +79,13 @@ def _differences(expected: Any, found: Any, where: str, abs_tol: float = ABS_TOL
     return []
 
 
-def test_every_shipped_pair_is_in_the_snapshot(atlas_results: dict[str, PairResults]) -> None:
-    assert sorted(atlas_results) == sorted(EXPECTED)
+def test_every_shipped_pair_is_in_the_snapshot(catalogue: Catalogue) -> None:
+    assert sorted(catalogue.pairs) == sorted(EXPECTED)
 
 
 @pytest.mark.parametrize("pid", sorted(EXPECTED))
-def test_results_match_the_snapshot(pid: str, atlas_results: dict[str, PairResults]) -> None:
-    found = json.loads(json.dumps(snapshot(atlas_results[pid]), allow_nan=False))
+def test_results_match_the_snapshot(pid: str, shipped_results: ShippedResults) -> None:
+    found = json.loads(json.dumps(snapshot(shipped_results[pid]), allow_nan=False))
     problems = _differences(EXPECTED[pid], found, pid)
     assert not problems, "\n".join(problems[:20])
 
