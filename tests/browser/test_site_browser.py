@@ -15,6 +15,7 @@ import pytest
 
 from builder.site.serve import Preview
 from tests.browser.conftest import Watched
+from tests.conftest import HOSTILE_NAME
 
 
 @pytest.fixture(scope="module")
@@ -135,14 +136,9 @@ def test_methods_page_renders_math_offline(site: Path, watched: Watched) -> None
     watched.check()
 
 
-def test_hostile_catalogue_text_shows_as_text(tmp_path_factory: pytest.TempPathFactory,
-                                             watched: Watched) -> None:
-    from builder.site.build import build_site
-    from tests.test_site import HOSTILE_NAME, hostile_catalogue
-
-    root = tmp_path_factory.mktemp("hostile-browser")
-    out = root / "site"
-    build_site(hostile_catalogue(root), out_dir=out, only=["acetone--chloroform"])
+def test_hostile_catalogue_text_shows_as_text(hostile_site: Path, watched: Watched) -> None:
+    """The hostile site of tests/conftest.py (built once; test_site.py reads its files)."""
+    out = hostile_site
     page = watched.page
     for name in ("pairs/acetone--chloroform.html", "components/chloroform.html",
                  "methods.html", "index.html"):
