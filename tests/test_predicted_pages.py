@@ -87,6 +87,10 @@ def test_predicted_pages_are_badged_everywhere(built: tuple) -> None:
     assert 'data-quality="predicted"' in water and 'data-quality="fitted"' in water
 
 
-def test_shipped_settings_leave_predicted_pages_to_the_lead() -> None:
-    """The full atlas with predicted pages is thousands of pages: a setting decides."""
-    assert load_settings().predicted_pairs in ((), ("all",))
+def test_shipped_settings_name_catalogued_components(catalogue: Catalogue) -> None:
+    """The shipped predicted-page list holds no typo (a listed id the catalogue lacks would
+    only be skipped, with a line in the build output)."""
+    listed = load_settings().predicted_pairs
+    assert listed and listed != ("all",)
+    assert set(listed) <= set(catalogue.components)
+    assert select_predicted(catalogue, listed).not_in_catalogue == ()
