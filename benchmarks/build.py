@@ -3,8 +3,9 @@
 Prints, for docs/benchmarks.md:
 
 * **Figures**: per-pair figure time (wall and CPU, median) and mean SVG size, for the
-  shipped (fitted) pairs and for one-isobar pairs (the shape of a predicted pair: the
-  shipped pairs cut to their 101.325 kPa isobar);
+  shipped (fitted) pairs, for the shipped pairs cut to their 101.325 kPa isobar (a fitted
+  page's set of figures for one condition) and for predicted pairs (the combinations of
+  :data:`PREDICTED_AMONG` without a fitted set: one combined Txy + xy figure per page);
 * **Site build**: a cold build of the shipped catalogue (``atlas build --no-cache``),
   its peak memory (the build and its worker processes together), site and search-index
   size; then an incremental rebuild after editing one pair file;
@@ -33,6 +34,7 @@ import sys
 import tempfile
 import threading
 import time
+from collections.abc import Callable
 from pathlib import Path
 
 import yaml
@@ -42,7 +44,7 @@ sys.path.insert(0, str(REPO))
 
 from builder.analysis.results import compute_pair  # noqa: E402
 from builder.catalogue.loader import load_catalogue  # noqa: E402
-from builder.site.figures import component_figure, pair_figures  # noqa: E402
+from builder.site.figures import Figure, component_figure, pair_figures  # noqa: E402
 from builder.site.settings import SiteSettings  # noqa: E402
 
 ATMOSPHERE = "101.325 kPa"
@@ -51,21 +53,30 @@ ATMOSPHERE = "101.325 kPa"
 # -- figures -------------------------------------------------------------------------------
 
 
-def _figure_times(results: list, settings: SiteSettings) -> tuple[list[float], list[float],
-                                                                   list[int]]:
+def _figure_times(results: list, draw: Callable[..., tuple[Figure, ...]],
+                  settings: SiteSettings) -> tuple[list[float], list[float], list[int]]:
     walls, cpus, sizes = [], [], []
-    pair_figures(results[0], settings)  # warm up (fonts, caches)
+    draw(results[0], settings)  # warm up (fonts, kept figures)
     for r in results:
         w, c = time.perf_counter(), time.process_time()
-        figures = pair_figures(r, settings)
+        figures = draw(r, settings)
         walls.append(time.perf_counter() - w)
         cpus.append(time.process_time() - c)
         sizes.extend(len(f.svg) for f in figures)
     return walls, cpus, sizes
 
 
+#: The components whose combinations give the predicted pairs timed (a spread of kinds:
+#: one liquid, azeotropes, a liquid split).
+PREDICTED_AMONG = ("acetone", "benzene", "cyclohexane", "ethanol", "methanol", "n-hexane",
+                   "toluene", "water")
+
+
 def bench_figures(sample: int | None = None) -> None:
     from dataclasses import replace
+
+    from builder.site.predicted import select_predicted
+    from builder.site.predicted_figures import predicted_figure
 
     catalogue = load_catalogue()
     settings = SiteSettings()
@@ -76,12 +87,20 @@ def bench_figures(sample: int | None = None) -> None:
         pair = catalogue.pairs[pid]
         one.append(compute_pair(catalogue, replace(pair, isobars_Pa=(101325.0,),
                                                    isotherms_K=())))
+    selection = select_predicted(catalogue, tuple(c for c in PREDICTED_AMONG
+                                                  if c in catalogue.components))
+    work = replace(catalogue, pairs={**catalogue.pairs, **selection.records})
+    predicted = [compute_pair(work, work.pairs[pid])
+                 for pid in sorted(selection.records)[:sample]]
     print("## Figures")
     print("| pairs | figures per pair | per-pair time, median (wall / CPU) | mean SVG |")
     print("|---|---|---|---|")
-    for label, results in ((f"fitted (shipped, {len(pids)})", fitted),
-                           (f"one isobar (predicted shape, {len(pids)})", one)):
-        walls, cpus, sizes = _figure_times(results, settings)
+    for label, results, draw in (
+            (f"fitted (shipped, {len(pids)})", fitted, pair_figures),
+            (f"one isobar, fitted page's set ({len(pids)})", one, pair_figures),
+            (f"predicted page (combined Txy + xy, {len(predicted)})", predicted,
+             predicted_figure)):
+        walls, cpus, sizes = _figure_times(results, draw, settings)
         print(f"| {label} | {len(sizes) / len(results):.1f} | "
               f"{statistics.median(walls) * 1e3:.0f} ms / {statistics.median(cpus) * 1e3:.0f} ms"
               f" | {statistics.mean(sizes) / 1e3:.1f} KB |")

@@ -23,6 +23,7 @@ from builder.catalogue.loader import Catalogue
 from builder.thermo import equilibrium as eq
 from builder.thermo.activity import Margules
 from builder.thermo.vapour_pressure import Antoine
+from tests.conftest import ShippedResults
 
 ATM = 101325.0
 
@@ -155,13 +156,13 @@ def test_three_phase_point_is_consistent() -> None:
 
 
 def test_water_butanol_three_phase_against_published_values(
-        atlas_results: dict[str, PairResults]) -> None:
+        shipped_results: ShippedResults) -> None:
     """Heterogeneous azeotrope of water-1-butanol at 101.325 kPa: 92.7 °C, 42.5 mass %
     water (x_water = 0.753) (CRC Handbook azeotrope table; from memory).  Coexisting liquids
     near 90 °C: about 26 mass % water in the butanol-rich phase (x_water ≈ 0.59) and about
     7 mass % butanol in the aqueous phase (x_water ≈ 0.982) (mutual-solubility data as
     compiled in the LLE literature; from memory, hence the wide tolerances)."""
-    result = atlas_results["water--1-butanol"].at_atmospheric()
+    result = shipped_results["water--1-butanol"].at_atmospheric()
     assert result is not None and result.three_phase is not None
     tp = result.three_phase
     assert tp.heterogeneous_azeotrope
@@ -180,10 +181,10 @@ def test_water_butanol_three_phase_against_published_values(
 
 
 def test_regression_no_homogeneous_azeotrope_across_the_two_liquid_gap(
-        atlas_results: dict[str, PairResults]) -> None:
+        shipped_results: ShippedResults) -> None:
     """Bug: the sign change of ln α across the excluded two-liquid stretch was bracketed
     and reported as a second, homogeneous azeotrope inside the gap."""
     for pid in ("water--1-butanol", "isobutanol--water"):
-        result = atlas_results[pid].at_atmospheric()
+        result = shipped_results[pid].at_atmospheric()
         assert result is not None
         assert [a.heterogeneous for a in result.azeotropes] == [True], pid

@@ -14,6 +14,7 @@ import pytest
 
 from builder.catalogue.loader import DEFAULT_CATALOGUE
 from builder.site.build import build_site
+from tests.conftest import cache_sharing_work
 
 
 @pytest.fixture(scope="module")
@@ -33,9 +34,17 @@ def failing_catalogue(tmp_path_factory: pytest.TempPathFactory) -> Path:
     return root
 
 
-def test_build_withholds_a_set_that_fails_its_checks(failing_catalogue: Path,
+@pytest.fixture(scope="module")
+def gate_work(tmp_path_factory: pytest.TempPathFactory) -> Path:
+    """One store of computed work for both builds of the failing catalogue (the same pairs
+    and settings): the second build takes the computed pairs from it."""
+    return tmp_path_factory.mktemp("gate-work")
+
+
+def test_build_withholds_a_set_that_fails_its_checks(failing_catalogue: Path, gate_work: Path,
                                                      tmp_path: Path) -> None:
-    report = build_site(failing_catalogue, tmp_path / "site", workers=1)
+    report = build_site(failing_catalogue, tmp_path / "site", workers=1,
+                        cache_dir=cache_sharing_work(gate_work, tmp_path))
     assert list(report.withheld) == ["ethanol--water"]
     assert "azeotrope at 101.325 kPa" in report.withheld["ethanol--water"][0]
     assert "ethanol--water.yaml: entry 'ethanol--water'" in report.withheld["ethanol--water"][0]
@@ -44,10 +53,10 @@ def test_build_withholds_a_set_that_fails_its_checks(failing_catalogue: Path,
     assert "Not published (failed checks" in report.summary()
 
 
-def test_allow_failed_checks_publishes_with_a_banner(failing_catalogue: Path,
+def test_allow_failed_checks_publishes_with_a_banner(failing_catalogue: Path, gate_work: Path,
                                                      tmp_path: Path) -> None:
     report = build_site(failing_catalogue, tmp_path / "site", workers=1,
-                        allow_failed_checks=True)
+                        cache_dir=cache_sharing_work(gate_work, tmp_path), allow_failed_checks=True)
     assert list(report.published_failing) == ["ethanol--water"]
     page = (tmp_path / "site" / "pairs" / "ethanol--water.html").read_text(encoding="utf-8")
     assert "atlas-failed-checks" in page and "fails 1 of its reference checks" in page

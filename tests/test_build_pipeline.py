@@ -129,12 +129,22 @@ def test_search_index_is_compact_and_names_cas_numbers(cold_and_incremental: dic
 # -- publishing: a failed or killed build leaves the published site as it was ----------
 
 
+@pytest.fixture(scope="module")
+def published_once(tmp_path_factory: pytest.TempPathFactory) -> Path:
+    """One build of acetone-chloroform: its catalogue, site and cache under one folder."""
+    root = tmp_path_factory.mktemp("published")
+    build_site(small_catalogue(root, ("acetone--chloroform",)), root / "site", workers=1,
+               quiet_progress=True)
+    return root
+
+
 @pytest.fixture()
-def published(tmp_path: Path) -> tuple[Path, Path, dict[str, bytes]]:
-    catalogue = small_catalogue(tmp_path, ("acetone--chloroform",))
+def published(tmp_path: Path, published_once: Path) -> tuple[Path, Path, dict[str, bytes]]:
+    """A fresh copy of that build (catalogue, published site and the cache beside it) for
+    each test to break."""
+    shutil.copytree(published_once, tmp_path, dirs_exist_ok=True)
     out = tmp_path / "site"
-    build_site(catalogue, out, workers=1, quiet_progress=True)
-    return catalogue, out, snapshot(out)
+    return tmp_path / "pairs", out, snapshot(out)
 
 
 def test_catalogue_error_leaves_the_site(published: tuple[Path, Path, dict[str, bytes]]

@@ -12,7 +12,7 @@ import re
 import pytest
 import yaml
 
-from builder.analysis.results import PairResults, compute_pair
+from builder.analysis.results import PairResults
 from builder.catalogue.loader import Catalogue
 from builder.catalogue.reader import _StrictLoader
 from builder.site.context import AtlasView, build_views, summary_condition
@@ -21,13 +21,15 @@ from builder.site.matrix import MARKS, behaviour_matrix, family_starts
 from builder.site.pages import render_pages
 from builder.site.partners import NO_PAGE, partner_rows
 from builder.site.settings import SiteSettings
+from tests.conftest import ShippedResults
 
 PAIRS = ("ethanol--water", "water--1-butanol", "acetone--chloroform", "benzene--toluene")
 
 
 @pytest.fixture(scope="module")
-def small(catalogue: Catalogue) -> tuple[AtlasView, dict[str, PairResults]]:
-    atlas = {pid: compute_pair(catalogue, catalogue.pairs[pid]) for pid in PAIRS}
+def small(catalogue: Catalogue, shipped_results: ShippedResults
+          ) -> tuple[AtlasView, dict[str, PairResults]]:
+    atlas = {pid: shipped_results[pid] for pid in PAIRS}
     return build_views(SiteSettings(), catalogue, atlas), atlas
 
 

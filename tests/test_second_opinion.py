@@ -14,7 +14,7 @@ import dataclasses
 import numpy as np
 import pytest
 
-from builder.analysis.results import PairResults, compute_pair
+from builder.analysis.results import PairResults
 from builder.analysis.second_opinion import (
     SHIFT_TOLERANCE,
     behaviour_class,
@@ -23,11 +23,12 @@ from builder.analysis.second_opinion import (
 )
 from builder.catalogue.loader import Catalogue
 from builder.site.context import behaviour
+from tests.conftest import ShippedResults
 
 
 @pytest.fixture(scope="module")
-def ethanol_water(catalogue: Catalogue) -> PairResults:
-    return compute_pair(catalogue, catalogue.pairs["ethanol--water"])
+def ethanol_water(shipped_results: ShippedResults) -> PairResults:
+    return shipped_results["ethanol--water"]
 
 
 def test_ethanol_water_second_opinion(catalogue: Catalogue, ethanol_water: PairResults) -> None:
@@ -55,8 +56,9 @@ def test_ethanol_water_second_opinion(catalogue: Catalogue, ethanol_water: PairR
     assert op.isobar_at(101325.0) is op.predicted
 
 
-def test_zeotropic_pair_agrees_without_a_verdict(catalogue: Catalogue) -> None:
-    results = compute_pair(catalogue, catalogue.pairs["benzene--toluene"])
+def test_zeotropic_pair_agrees_without_a_verdict(catalogue: Catalogue,
+                                                 shipped_results: ShippedResults) -> None:
+    results = shipped_results["benzene--toluene"]
     op = second_opinion(catalogue, results)
     # Benzene-toluene is the textbook near-ideal zeotropic pair (common practice).
     assert op.fitted_class == op.predicted_class == "zeotropic"
@@ -79,10 +81,10 @@ def test_predicted_record_keeps_the_pair(catalogue: Catalogue) -> None:
     assert record.quality == "predicted" and record.model is not pair.model
 
 
-def test_behaviour_class_matches_the_site_classes(catalogue: Catalogue,
-                                                  ethanol_water: PairResults) -> None:
+def test_behaviour_class_matches_the_site_classes(ethanol_water: PairResults,
+                                                  shipped_results: ShippedResults) -> None:
     """One classification in the analysis and on the pages (consistency)."""
-    results = [ethanol_water, compute_pair(catalogue, catalogue.pairs["water--1-butanol"])]
+    results = [ethanol_water, shipped_results["water--1-butanol"]]
     for r in results:
         for condition in r.isobars:
             assert behaviour_class(condition) == behaviour(condition)

@@ -12,77 +12,28 @@ import dataclasses
 import io
 import json
 import re
-import shutil
 from pathlib import Path
 
 import pytest
-import yaml
 
-from builder.analysis.results import RESULTS_VERSION, ConditionResult, PairResults, compute_pair
+from builder.analysis.results import RESULTS_VERSION, ConditionResult, PairResults
 from builder.analysis.stability import ThreePhase
 from builder.catalogue.loader import Catalogue
 from builder.site.assemble import AssembleError, check_output_folder
-from builder.site.build import build_site
 from builder.site.content import SiteContent, generate
 from builder.site.context import build_views
 from builder.site.figures import pair_figures
 from builder.site.settings import SettingsError, SiteSettings, load_settings
 from builder.site.text import UnsafeName, escape, file_slug, safe_id
 from builder.site.verify import verify_site
+from tests.conftest import SMALL, ShippedResults
 
 pytest.importorskip("material", reason="the site extra is not installed: pip install -e '.[site]'")
 
-SMALL = ("acetone--chloroform", "ethanol--water")
-HOSTILE_NAME = 'Chloro<script>window.__pwned=1</script>form'
-
-
-# -- helpers -----------------------------------------------------------------
-
-
-def hostile_catalogue(root: Path) -> Path:
-    """A copy of the shipped catalogue whose texts carry markup, script and Markdown links."""
-    target = root / "hostile-pairs"
-    shutil.copytree(Path(__file__).resolve().parent.parent / "pairs", target)
-    path = target / "components" / "chloroform.yaml"
-    data = yaml.safe_load(path.read_text(encoding="utf-8"))
-    data["name"] = HOSTILE_NAME
-    data["synonyms"] = ['<img src=x onerror="window.__pwned=2">', "trichloromethane"]
-    data["hazard"]["summary"] = ('Toxic <iframe src="javascript:window.__pwned=4"></iframe> '
-                                 "[x](javascript:window.__pwned=5)")
-    path.write_text(yaml.safe_dump(data, allow_unicode=True), encoding="utf-8")
-    path = target / "binaries" / "acetone--chloroform.yaml"
-    data = yaml.safe_load(path.read_text(encoding="utf-8"))
-    data["notes"] = ("[click](javascript:window.__pwned=3) **bold** "
-                     '<b onmouseover="window.__pwned=6">b</b> $x^2$ {: onclick="x"} '
-                     "<https://evil.example/x.js> ![img](https://evil.example/a.png)\n"
-                     "# heading\n- list")
-    path.write_text(yaml.safe_dump(data, allow_unicode=True), encoding="utf-8")
-    path = target / "references" / "horsley-1973.yaml"
-    data = yaml.safe_load(path.read_text(encoding="utf-8"))
-    data["title"] = ('Azeotropic <svg onload="window.__pwned=7"> Data '
-                     "<link rel=stylesheet href=https://evil.example/x.css>")
-    path.write_text(yaml.safe_dump(data, allow_unicode=True), encoding="utf-8")
-    return target
-
 
 @pytest.fixture(scope="module")
-def small_site(tmp_path_factory: pytest.TempPathFactory) -> Path:
-    out = tmp_path_factory.mktemp("small") / "site"
-    build_site(out_dir=out, only=SMALL, strict=True)
-    return out
-
-
-@pytest.fixture(scope="module")
-def hostile_site(tmp_path_factory: pytest.TempPathFactory) -> Path:
-    root = tmp_path_factory.mktemp("hostile")
-    out = root / "site"
-    build_site(hostile_catalogue(root), out_dir=out, only=["acetone--chloroform"], strict=True)
-    return out
-
-
-@pytest.fixture(scope="module")
-def small_atlas(catalogue: Catalogue) -> dict[str, PairResults]:
-    return {pid: compute_pair(catalogue, catalogue.pairs[pid]) for pid in SMALL}
+def small_atlas(shipped_results: ShippedResults) -> dict[str, PairResults]:
+    return {pid: shipped_results[pid] for pid in SMALL}
 
 
 # -- text safety (common practice) -------------------------------------------------
@@ -155,7 +106,8 @@ def _without_sections(results: PairResults) -> PairResults:
 def test_pages_leave_out_the_sections_whose_field_is_none(
         catalogue: Catalogue, small_atlas: dict[str, PairResults]) -> None:
     bare = {pid: _without_sections(r) for pid, r in small_atlas.items()}
-    view, content = generate(SiteSettings(), catalogue, bare)
+    # The component figures (drawn by every site build) are not what this test checks.
+    view, content = generate(SiteSettings(), catalogue, bare, comp_figs={})
     page = content.files["pairs/ethanol--water.md"].decode()
     assert "Phase diagrams" in page and "Distillation quick look" not in page
     assert "Reference checks" not in page

@@ -259,7 +259,8 @@ def PRMIX_class() -> type:
 
 
 _COOLPROP_NAMES = {"propane": "Propane", "n-butane": "n-Butane", "ethane": "Ethane",
-                   "propylene": "Propylene", "n-pentane": "n-Pentane"}
+                   "propylene": "Propylene", "n-pentane": "n-Pentane", "n-hexane": "n-Hexane",
+                   "n-heptane": "n-Heptane"}
 
 
 def _coolprop_deviation(catalogue: Catalogue, pid: str, pressures: tuple[float, ...]
@@ -282,28 +283,75 @@ def _coolprop_deviation(catalogue: Catalogue, pid: str, pressures: tuple[float, 
     return worst
 
 
-def test_propylene_propane_against_coolprop(catalogue: Catalogue) -> None:
-    """Reference: CoolProp 8.0 mixture model; bubble and dew T within 0.5 K at 1 and 1.8 MPa."""
-    assert _coolprop_deviation(catalogue, "propylene--propane", (1.0e6, 1.8e6)) < 0.5
+#: The hydrocarbon pairs CoolProp has, the pressures checked (those of issue 11 for
+#: propane-n-butane, the published isobars' range for the others) and, where the
+#: catalogue's model misses 0.5 K, the reason (measured; see the pair notes).
+_COOLPROP_PAIRS = {
+    "propane--n-butane": (1.0e6, 1.5e6, 2.0e6),
+    "ethane--propane": (1.0e6, 2.0e6, 3.0e6),
+    "propylene--propane": (1.0e6, 1.8e6),
+    "n-butane--n-pentane": (1.0e5, 5.0e5, 1.0e6),
+    # γ–φ (ideal liquid, virial vapour): of the catalogue's other hydrocarbon pairs CoolProp
+    # has binary mixture parameters only for this one (none for the aromatic pairs).
+    "n-hexane--n-heptane": (3.0e4, 101325.0, 3.0e5),
+}
+_MISSES_HALF_A_KELVIN = {
+    "propane--n-butane": "with the DECHEMA k12 (0.0033) 0.51-0.65 K low at 1-2 MPa: 0.1-0.4 K of "
+                         "it is Peng-Robinson's own vapour pressure of n-butane and propane, low "
+                         "there; published alternative alpha functions do not remove it",
+    "ethane--propane": "with the DECHEMA k12 (0.0011) up to 0.85 K low near the middle of the "
+                       "composition range; the pure ends are within 0.32 K, so the rest is the "
+                       "one-fluid mixing rule with this k12",
+    "n-hexane--n-heptane": "the catalogue's ideal-solution liquid: CoolProp's mixture shows a "
+                           "slight positive deviation from Raoult's law, bubble and dew points "
+                           "up to 0.54 K lower mid-range; the pure ends agree within 0.1 K",
+}
+#: Worst deviation measured with the catalogue's model (guards against a drift).
+_MEASURED_WORST_K = {"propane--n-butane": 0.65, "ethane--propane": 0.85,
+                     "propylene--propane": 0.33, "n-butane--n-pentane": 0.19,
+                     "n-hexane--n-heptane": 0.54}
 
 
-@pytest.mark.xfail(strict=True, reason="Peng-Robinson (1976) with the Knapp k12 is 0.51-0.65 K "
-                   "low against CoolProp at 1-2 MPa: its own n-butane vapour pressure is 0.1-0.4 K "
-                   "low there (measured; see the pair notes)")
-def test_propane_n_butane_within_half_a_kelvin_of_coolprop(catalogue: Catalogue) -> None:
-    """Reference: CoolProp 8.0 mixture model; the target of 0.5 K at 1, 1.5 and 2 MPa."""
-    assert _coolprop_deviation(catalogue, "propane--n-butane", (1.0e6, 1.5e6, 2.0e6)) < 0.5
+@pytest.mark.parametrize("pid", [
+    pytest.param(p, marks=pytest.mark.xfail(strict=True, reason=_MISSES_HALF_A_KELVIN[p]))
+    if p in _MISSES_HALF_A_KELVIN else p for p in _COOLPROP_PAIRS])
+def test_hydrocarbon_pairs_within_half_a_kelvin_of_coolprop(catalogue: Catalogue,
+                                                            pid: str) -> None:
+    """Reference: CoolProp 8.0 multi-parameter mixture model; issue 11's target: bubble and
+    dew temperatures within 0.5 K (x1 = 0.1-0.9)."""
+    assert _coolprop_deviation(catalogue, pid, _COOLPROP_PAIRS[pid]) < 0.5
 
 
-def test_propane_n_butane_against_coolprop_as_measured(catalogue: Catalogue) -> None:
-    """Reference: CoolProp 8.0 mixture model; guards the measured agreement (0.65 K at worst,
-    against 2.0-3.4 K for Raoult's law) at 1, 1.5 and 2 MPa."""
-    assert _coolprop_deviation(catalogue, "propane--n-butane", (1.0e6, 1.5e6, 2.0e6)) < 0.7
+@pytest.mark.parametrize("pid", sorted(_MEASURED_WORST_K))
+def test_hydrocarbon_pairs_against_coolprop_as_measured(catalogue: Catalogue, pid: str) -> None:
+    """Reference: CoolProp 8.0 mixture model; the measured worst deviation, rounded up by
+    0.02 K (Raoult's law is 2.0-3.4 K off for propane-n-butane at 1-2 MPa)."""
+    assert _coolprop_deviation(catalogue, pid, _COOLPROP_PAIRS[pid]) < _MEASURED_WORST_K[pid] + 0.02
 
 
-def test_ethane_propane_against_coolprop_as_measured(catalogue: Catalogue) -> None:
-    """Reference: CoolProp 8.0 mixture model at 1-3 MPa: 0.85 K at worst (measured)."""
-    assert _coolprop_deviation(catalogue, "ethane--propane", (1.0e6, 2.0e6, 3.0e6)) < 0.9
+@pytest.mark.parametrize(("cid", "pressures"), [
+    ("ethane", (1.0e6, 2.0e6, 3.0e6)), ("propylene", (1.0e6, 1.8e6)),
+    ("propane", (1.0e6, 1.5e6, 2.0e6, 3.0e6)), ("n-butane", (1.0e5, 1.0e6, 1.5e6, 2.0e6)),
+    ("n-pentane", (1.0e5, 5.0e5, 1.0e6))])
+def test_peng_robinson_saturation_temperatures_against_coolprop(
+        catalogue: Catalogue, cid: str, pressures: tuple[float, ...]) -> None:
+    """Reference: CoolProp 8.0 reference equations of state (saturation temperature).  The
+    pure-fluid part of the mixture deviations: Peng-Robinson (1976) with the catalogue's
+    critical constants and acentric factor is within 0.45 K at the pressures of the
+    checks above (measured: n-butane 0.42 K low at 2 MPa, the largest)."""
+    from CoolProp.CoolProp import PropsSI
+
+    from builder.thermo.cubic import CubicMixture
+
+    c = catalogue.components[cid]
+    mixture = CubicMixture((c.critical_temperature_K,) * 2, (c.critical_pressure_Pa,) * 2,
+                           (c.acentric_factor,) * 2)
+    system = eq.BinarySystem(c.vapour_pressure, c.vapour_pressure, Ideal(), vapour=mixture)
+    for P in pressures:
+        ours = eq.bubble_temperature(system, np.array([1.0]), P)
+        assert ours.converged[0]
+        T_ref = PropsSI("T", "P", P, "Q", 0, "HEOS::" + _COOLPROP_NAMES[cid])
+        assert abs(ours.T_K[0] - T_ref) < 0.45, (cid, P, ours.T_K[0] - T_ref)
 
 
 def test_isotherm_above_a_critical_temperature_ends_at_the_critical_point(

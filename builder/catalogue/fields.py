@@ -427,7 +427,8 @@ SPLIT = Block("split", tuple(
 VAPOUR = Block("vapour", (
     Field("model", "choice", choices=("ideal-gas", "virial", "associating", "peng-robinson"),
           help="vapour treatment: ideal-gas, virial (default), associating (carboxylic "
-          "acids), peng-robinson (phi-phi, no activity block)"),
+          "acids, with activity parameters regressed with it), peng-robinson (phi-phi, no "
+          "activity block)"),
     Field("kij", "number", required=False, minimum=-0.5, maximum=0.5, exclusive=True,
           help="binary interaction parameter k12 (peng-robinson: required)"),
     Field("T_range", "range", "temperature", required=False, minimum=1.0, maximum=2500.0,
@@ -450,9 +451,9 @@ PAIR = Block("pair", (
     Field("split", "block", block=SPLIT, required=False),
     Field("tags", "texts", required=False, help="keywords for the index"),
     Field("notes", "text", required=False, help="free text shown on the page"),
-), one_of=(("activity",), ("vapour",)),
-   help="one binary pair: an activity block (γ–φ, virial vapour) or a vapour block "
-        "(peng-robinson)")
+), help="one binary pair: an activity block (γ–φ; the vapour by default virial, or as its "
+        "vapour block says: ideal-gas, virial, associating) or a peng-robinson vapour block "
+        "alone (φ–φ)")
 
 #: The three kinds of catalogue file: folder name -> top-level block.
 BLOCKS: dict[str, Block] = {"references": REFERENCE, "components": COMPONENT,

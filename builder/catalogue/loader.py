@@ -791,6 +791,11 @@ def _load_pair(entry: _Entry, components: Mapping[str, Component],
     if cubic and model_block is not None:
         model_block.fail("", "no activity block (a peng-robinson pair takes both phases from "
                          "the equation of state)", "an activity block")
+    if not cubic and model_block is None:
+        entry.fail("activity", "the liquid activity model (every pair but a peng-robinson one)",
+                   "nothing (the field is missing)")
+    if pair_vapour.model == "associating" and known:
+        _check_associating(entry, [components[c] for c in ids])
 
     model: act.ActivityModel | None = None
     kind = ""
@@ -863,6 +868,20 @@ def _load_pair(entry: _Entry, components: Mapping[str, Component],
         notes=notes, file=entry.file, tags=tags, split_x1=split, parameters=typed,
         vapour=pair_vapour,
     )
+
+
+def _check_associating(entry: _Entry, pair_components: list[Component]) -> None:
+    """An associating vapour needs both components' virial blocks and a dimerising acid."""
+    lacking = [c.id for c in pair_components if c.virial is None]
+    if lacking:
+        entry.fail("vapour.model", "components with a virial block (the associating vapour "
+                   "reads the acid's dimerisation constant there)",
+                   f"associating, but {', '.join(lacking)} has no virial block")
+    elif not any(c.virial is not None and c.virial.dimerisation_A is not None
+                 for c in pair_components):
+        entry.fail("vapour.model", "a component whose virial block gives a dimerisation "
+                   "constant (associating is for carboxylic acids)",
+                   "associating, but neither component dimerises")
 
 
 def _split(entry: _Entry) -> tuple[float, float, float] | None:

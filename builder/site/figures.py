@@ -20,7 +20,6 @@ text that says what the figure shows in words.
 
 from __future__ import annotations
 
-import io
 from collections.abc import Sequence
 from dataclasses import dataclass
 from typing import Any
@@ -31,7 +30,6 @@ matplotlib.use("Agg")
 
 import numpy as np
 from matplotlib.axes import Axes
-from matplotlib.backends.backend_svg import FigureCanvasSVG
 from matplotlib.figure import Figure as MplFigure
 from matplotlib.lines import Line2D
 from matplotlib.patches import Patch
@@ -42,9 +40,9 @@ from builder.analysis.results import ConditionResult, PairResults
 from builder.analysis.second_opinion import SecondOpinion
 from builder.catalogue.records import Component
 from builder.site.context import Display, condition_slug
+from builder.site.figures_canvas import Kept, svg_bytes
 from builder.site.opinion_figures import Overlay, TraceOverlay, trace_overlay, txy_overlay
 from builder.site.settings import SiteSettings
-from builder.site.svg import compact
 from builder.site.text import fmt, mpl_text, one_line, safe_id
 
 __all__ = ["Figure", "component_figure", "pair_figures"]
@@ -92,6 +90,8 @@ SIZE_IN = (4.4, 3.0)
 TOP_IN = 0.5  # room for the title and the pair's names
 #: Composition axis ticks where markers sit (one every 0.1).
 _MARK_AT = np.linspace(0.0, 1.0, 11)
+#: Figures kept per kind for reuse in this process (see :class:`.figures_canvas.Kept`).
+_KEPT = Kept()
 
 
 @dataclass(frozen=True)
@@ -121,11 +121,11 @@ def _margins(fig: MplFigure, left: float = 0.62, right: float = 0.14, bottom: fl
                         top=1 - top / height, wspace=wspace)
 
 
-def _new(size: tuple[float, float] = SIZE_IN) -> tuple[MplFigure, Axes]:
-    fig = MplFigure(figsize=size)
-    FigureCanvasSVG(fig)
+def _new(kind: str, size: tuple[float, float] = SIZE_IN) -> tuple[MplFigure, Axes]:
+    """A figure of one axes (a kept one of this ``kind``, as if new) with the fixed margins."""
+    fig, (ax,) = _KEPT.take(kind, size)
     _margins(fig)
-    return fig, fig.add_subplot()
+    return fig, ax
 
 
 def _legend_below(fig: MplFigure, ax: Axes, handles: Sequence[Line2D | Patch],
@@ -168,9 +168,7 @@ def _size_px(fig: MplFigure) -> tuple[int, int]:
 
 
 def _svg(fig: MplFigure) -> bytes:
-    buffer = io.BytesIO()
-    fig.savefig(buffer, format="svg", metadata={"Date": None, "Creator": None})
-    return compact(buffer.getvalue())
+    return svg_bytes(fig)
 
 
 def _runs(mask: BoolArray) -> list[tuple[int, int]]:
@@ -277,7 +275,7 @@ def _diagram(results: PairResults, result: ConditionResult, display: Display,
     usable = _hetero_mask(result)
     extrap = np.asarray(result.extrapolated, dtype=bool)
     label = display.condition(result)
-    fig, ax = _new()
+    fig, ax = _new("diagram")
     dashed = _draw(ax, curve.x1, y_values, usable, extrap, colour=BUBBLE_COLOUR, marker="o")
     dashed_dew = _draw(ax, curve.y1, y_values, usable, extrap, colour=DEW_COLOUR, marker="s",
                        open_marker=True)
@@ -365,7 +363,7 @@ def _styles(count: int) -> list[tuple[str, str]]:
 
 def _xy(results: PairResults, display: Display, folder: str) -> Figure:
     n1, n2 = results.component1.name, results.component2.name
-    fig, ax = _new((4.4, 3.9))
+    fig, ax = _new("xy", (4.4, 3.9))
     ax.plot([0, 1], [0, 1], color=GREY, linewidth=0.9, linestyle=(0, (1, 2)), zorder=2)
     handles = [Line2D([], [], color=GREY, linewidth=0.9, linestyle=(0, (1, 2)),
                       label="diagonal")]
@@ -413,7 +411,7 @@ def _xy(results: PairResults, display: Display, folder: str) -> Figure:
 
 def _gamma(results: PairResults, display: Display, folder: str) -> Figure:
     n1, n2 = results.component1.name, results.component2.name
-    fig, ax = _new()
+    fig, ax = _new("gamma")
     handles = []
     any_dashed = False
     first = True
@@ -463,7 +461,7 @@ def _gamma(results: PairResults, display: Display, folder: str) -> Figure:
 
 def _alpha(results: PairResults, display: Display, folder: str) -> Figure:
     n1, n2 = results.component1.name, results.component2.name
-    fig, ax = _new()
+    fig, ax = _new("alpha")
     handles = []
     any_dashed = False
     values = []
@@ -510,10 +508,8 @@ def _trace(results: PairResults, display: Display, folder: str,
     if ok.sum() < 2:
         return None
     ex = np.asarray(trace.extrapolated, dtype=bool)
-    fig = MplFigure(figsize=(4.4, 2.8))
-    FigureCanvasSVG(fig)
+    fig, (left, right) = _KEPT.take("trace", (4.4, 2.8), 1, 2)
     _margins(fig, right=0.1, top=0.3, wspace=0.55)
-    left, right = fig.subplots(1, 2)
     d1 = _draw(left, P, x1, ok, ex, colour=PALETTE[0], marker="o", along=np.linspace(0, 1, P.size))
     d2 = _draw(right, P, T, ok, ex, colour=PALETTE[1], marker="s",
                along=np.linspace(0, 1, P.size))
@@ -572,7 +568,7 @@ def component_figure(component: Component, settings: SiteSettings) -> Figure:
     T_all = np.linspace(max(lo - margin, 1.0), min(hi + margin, component.critical_temperature_K),
                         241)
     with matplotlib.rc_context(STYLE):  # type: ignore[arg-type]
-        fig, ax = _new((4.4, 3.0))
+        fig, ax = _new("vapour-pressure", (4.4, 3.0))
         P = np.asarray(vp.pressure_Pa(T_all), dtype=float) / settings.pressure_factor
         inside = (T_all >= lo) & (T_all <= hi)
         Tx = display.T_values(T_all)

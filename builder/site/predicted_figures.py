@@ -10,17 +10,15 @@ results only.
 
 from __future__ import annotations
 
-import io
-
 import matplotlib
 import numpy as np
-from matplotlib.backends.backend_svg import FigureCanvasSVG
 from matplotlib.figure import Figure as MplFigure
 from matplotlib.lines import Line2D
 
 from builder.analysis.results import ConditionResult, PairResults
 from builder.site.context import Display, condition_slug, summary_condition
 from builder.site.figures import BUBBLE_COLOUR, DEW_COLOUR, STYLE, Figure
+from builder.site.figures_canvas import Kept, svg_bytes
 from builder.site.settings import SiteSettings
 from builder.site.text import fmt, mpl_text, one_line, safe_id
 
@@ -28,6 +26,8 @@ __all__ = ["predicted_figure"]
 
 SIZE_IN = (7.6, 3.5)
 _MARKS = np.linspace(0.0, 1.0, 11)
+#: The combined figure, kept for reuse in this process (see :class:`.figures_canvas.Kept`).
+_KEPT = Kept()
 
 
 def _every_tenth(x1: np.ndarray) -> list[int]:
@@ -39,12 +39,10 @@ def _draw(results: PairResults, result: ConditionResult, display: Display) -> Mp
     ok = np.asarray(result.drawable, dtype=bool)
     T = np.where(ok, display.T_values(np.asarray(curve.T_K, dtype=float)), np.nan)
     y1 = np.where(ok, curve.y1, np.nan)
-    fig = MplFigure(figsize=SIZE_IN)
-    FigureCanvasSVG(fig)
+    fig, (txy, xy) = _KEPT.take("txy-xy", SIZE_IN, 1, 2)
     w, h = SIZE_IN
     fig.subplots_adjust(left=0.62 / w, right=1 - 0.15 / w, bottom=0.95 / h, top=1 - 0.5 / h,
                         wspace=0.32)
-    txy, xy = fig.subplots(1, 2)
     marks = _every_tenth(curve.x1)
     txy.plot(curve.x1, T, color=BUBBLE_COLOUR, marker="o", markevery=marks)
     txy.plot(curve.y1, T, color=DEW_COLOUR, marker="s", markerfacecolor="white",
@@ -98,8 +96,7 @@ def predicted_figure(results: PairResults, settings: SiteSettings) -> tuple[Figu
         return ()
     with matplotlib.rc_context(STYLE):  # type: ignore[arg-type]
         fig = _draw(results, result, display)
-        buffer = io.BytesIO()
-        fig.savefig(buffer, format="svg", metadata={"Date": None, "Creator": None})
+        svg = svg_bytes(fig)
     width, height = (round(v * 96) for v in fig.get_size_inches())
     n1, n2 = one_line(results.component1.name), one_line(results.component2.name)
     kinds = [a.kind for a in result.azeotropes]
@@ -110,7 +107,7 @@ def predicted_figure(results: PairResults, settings: SiteSettings) -> tuple[Figu
            + (", and a three-phase line" if result.three_phase is not None else "") + ".")
     slug = condition_slug(result)
     folder = f"pairs/{safe_id(results.pair.id)}"
-    return (Figure(path=f"{folder}/txy-xy-{slug}.svg", svg=buffer.getvalue(), alt=alt,
+    return (Figure(path=f"{folder}/txy-xy-{slug}.svg", svg=svg, alt=alt,
                    caption=f"Predicted by {one_line(results.pair.model.name)}: Txy (left) "
                    f"and xy (right) at {display.condition(result)}.", group="condition",
                    slug=slug, width_px=width, height_px=height),)

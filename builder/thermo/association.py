@@ -76,6 +76,11 @@ def dimer_monomer_fractions(y1: ArrayLike, P_Pa: ArrayLike, K11: ArrayLike, K22:
     """
     y, P, k11, k22, k12 = np.broadcast_arrays(*(np.asarray(v, dtype=float) for v in (
         y1, P_Pa, K11, K22, K12)))
+    if not np.any(k22) and not np.any(k12):
+        return _acid_with_inert(y, P, k11)
+    if not np.any(k11) and not np.any(k12):
+        b, a = _acid_with_inert(1.0 - y, P, k22)
+        return a, b
     shape = y.shape
     y, P, k11, k22, k12 = (v.ravel() for v in (y, P, k11, k22, k12))
     a11, a22, a12 = k11 * P, k22 * P, k12 * P
@@ -102,6 +107,26 @@ def dimer_monomer_fractions(y1: ArrayLike, P_Pa: ArrayLike, K11: ArrayLike, K22:
     a = np.where(y >= 1.0, a_max, np.where(y <= 0.0, 0.0, result.root))
     b = monomer2(a, everything)
     return a.reshape(shape), b.reshape(shape)
+
+
+def _acid_with_inert(y1: FloatArray, P_Pa: FloatArray, K11: FloatArray
+                     ) -> tuple[FloatArray, FloatArray]:
+    """Monomer fractions of an acid (1) with a component that does not dimerise (2).
+
+    With ``D = K11 P a²`` the apparent fraction is ``y1 = (a + 2D)/(1 + D)``, so
+    ``K11 P (2 - y1) a² + a - y1 = 0``: ``a = 2 y1 / (1 + [1 + 4 K11 P (2 - y1) y1]^½)``
+    (the root written without cancellation), and ``b = 1 - a - D``.  Same answer as the
+    general solve of :func:`dimer_monomer_fractions`, in closed form:
+
+    >>> a, b = _acid_with_inert(np.array(0.5), np.array(1e5), np.array(2e-5))
+    >>> round(float(a), 6), round(float(b), 6)
+    (0.274292, 0.575236)
+    """
+    kp = K11 * P_Pa
+    y = np.clip(y1, 0.0, 1.0)
+    a = 2.0 * y / (1.0 + np.sqrt(1.0 + 4.0 * kp * (2.0 - y) * y))
+    b = 1.0 - a - kp * a * a
+    return np.asarray(a, dtype=float), np.asarray(np.maximum(b, 0.0), dtype=float)
 
 
 @dataclass(frozen=True)

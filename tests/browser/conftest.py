@@ -17,6 +17,7 @@ from urllib.parse import urlsplit
 import pytest
 
 from builder.site.build import build_site
+from tests.conftest import cache_sharing_work
 
 pytest.importorskip("material", reason="the site extra is not installed: pip install -e '.[site]'")
 
@@ -31,14 +32,15 @@ def _need(condition: bool, reason: str) -> None:
 
 
 @pytest.fixture(scope="session")
-def site(tmp_path_factory: pytest.TempPathFactory) -> Path:
+def site(tmp_path_factory: pytest.TempPathFactory, shared_work: Path) -> Path:
     given = os.environ.get("ATLAS_SITE")
     if given:
         path = Path(given).resolve()
         assert (path / "index.html").is_file(), f"ATLAS_SITE={given} holds no built site"
         return path
-    out = tmp_path_factory.mktemp("browser") / "site"
-    build_site(out_dir=out, strict=True)
+    root = tmp_path_factory.mktemp("browser")
+    out = root / "site"
+    build_site(out_dir=out, strict=True, cache_dir=cache_sharing_work(shared_work, root))
     return out
 
 
