@@ -9,12 +9,14 @@ from __future__ import annotations
 
 import dataclasses
 import json
+import re
 
 import pytest
 
 from builder.analysis.results import PairResults, compute_pair
 from builder.catalogue.loader import Catalogue
 from builder.site.content import SiteContent, generate
+from builder.site.context import build_views
 from builder.site.predicted import NOT_BUILT, select_predicted
 from builder.site.settings import SiteSettings, load_settings
 from tests.conftest import ShippedResults
@@ -94,3 +96,25 @@ def test_shipped_settings_name_catalogued_components(catalogue: Catalogue) -> No
     assert listed and listed != ("all",)
     assert set(listed) <= set(catalogue.components)
     assert select_predicted(catalogue, listed).not_in_catalogue == ()
+
+
+def test_summary_states_the_volatility_of_the_lighter_component(catalogue: Catalogue) -> None:
+    # 1-Butanol (1) boils at 117.7 °C, 2-butanone (2) at 79.6 °C: component 2 is the light
+    # one everywhere, so α12 < 1.  The sentence grades the split by α21 = 1/α12 and says so,
+    # rather than printing α12 values below one beside "an easy split".  Common practice:
+    # relative volatility is quoted for the lighter component over the heavier.
+    selection = select_predicted(catalogue, ("1-butanol", "2-butanone"))
+    (record,) = selection.records.values()
+    assert (record.component1, record.component2) == ("1-butanol", "2-butanone")
+    work = dataclasses.replace(catalogue, pairs={record.id: record})
+    results = compute_pair(work, record)
+    view = build_views(SiteSettings(second_opinion=False), work, {record.id: results})
+    (pair,) = view.pairs
+    volatility = results.isobars[0].volatility
+    assert volatility.alpha_max < 1.0
+    assert "relative volatility of 2-Butanone over 1-Butanol" in pair.sentence
+    low, high = (float(v) for v in re.findall(r"runs from ([\d.]+) to ([\d.]+)",
+                                                pair.sentence)[0])
+    assert low == pytest.approx(1.0 / volatility.alpha_max, rel=1e-3)
+    assert high == pytest.approx(1.0 / volatility.alpha_min, rel=1e-3)
+    assert 1.0 < low < high

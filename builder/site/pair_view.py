@@ -109,6 +109,12 @@ def _sentence(results: PairResults, result: ConditionResult | None, display: Dis
     where = f"at {display.condition(result)}"
     v = result.volatility
     if key == "zeotropic":
+        if v.alpha_max < 1.0:
+            # Component 2 is the lighter throughout: say its volatility over component 1
+            # (α21 = 1/α12), so that the numbers read as the split they grade.
+            return (f"{n1} and {n2} form no azeotrope {where}; the relative volatility of "
+                    f"{n2} over {n1} (α21 = 1/α12) runs from {fmt(1.0 / v.alpha_max, 3)} "
+                    f"to {fmt(1.0 / v.alpha_min, 3)}, {v.grade_text}.")
         return (f"{n1} and {n2} form no azeotrope {where}; α12 runs from "
                 f"{fmt(v.alpha_min, 3)} to {fmt(v.alpha_max, 3)}, {v.grade_text}.")
     three = result.three_phase
