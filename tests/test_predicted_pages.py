@@ -118,3 +118,6 @@ def test_summary_states_the_volatility_of_the_lighter_component(catalogue: Catal
     assert low == pytest.approx(1.0 / volatility.alpha_max, rel=1e-3)
     assert high == pytest.approx(1.0 / volatility.alpha_min, rel=1e-3)
     assert 1.0 < low < high
+    facts = dict((row.label, row.value) for row in pair.summary)
+    (alpha,) = [value for label, value in facts.items() if label.startswith("Relative vol")]
+    assert f"α21 = 1/α12 from {low:.3g} to {high:.3g}" in alpha

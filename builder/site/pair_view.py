@@ -304,8 +304,11 @@ def pair_view(catalogue: Catalogue, results: PairResults, components: dict[str, 
             rows.append(Row(f"Azeotrope at {at}", "none found" if
                             summary.azeotrope_search_complete else
                             "none found (search incomplete)"))
+        v = summary.volatility
+        inverse = (f"α21 = 1/α12 from {fmt(1.0 / v.alpha_max, 3)} to "
+                   f"{fmt(1.0 / v.alpha_min, 3)}; " if v.alpha_max < 1.0 else "")
         rows.append(Row(f"Relative volatility α12 at {at}",
-                        f"{alpha_range(summary)} ({summary.volatility.grade_text})"))
+                        f"{alpha_range(summary)} ({inverse}{v.grade_text})"))
     else:
         rows.append(Row(f"At {at}", "not published for this pair; see the conditions below"))
     rows.append(Row("Model and data quality", f"{pair.model.name}; {pair.quality}: "
