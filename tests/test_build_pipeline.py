@@ -20,10 +20,13 @@ from pathlib import Path
 import pytest
 import yaml
 
+from builder.catalogue.loader import load_catalogue
 from builder.errors import CatalogueErrors
 from builder.site import build as build_module
 from builder.site.build import STAGE_MARKER, BuildFailure, build_site
+from builder.site.predicted import select_predicted
 from builder.site.progress import Progress
+from builder.site.settings import load_settings
 from builder.site.verify import SiteCheck, svg_problems, verify_site
 
 pytest.importorskip("material", reason="the site extra is not installed: pip install -e '.[site]'")
@@ -93,8 +96,12 @@ def test_incremental_rebuild_equals_a_cold_build(cold_and_incremental: dict) -> 
     assert not (out / ".atlas-cache").exists()
     assert (out.parent / ".atlas-cache").is_dir()
     # The edited pair's old entry is pruned: one entry per pair and per component remains.
+    # The shipped settings also predict the combinations of listed solvents among the four
+    # components (acetone-ethanol, acetone-water): one entry each.
     stored = list((out.parent / ".atlas-cache" / "work").glob("*/*.pickle"))
-    assert len(stored) == len(PAIRS) + 4
+    predicted = select_predicted(load_catalogue(cold_and_incremental["catalogue"]),
+                                 load_settings().predicted_pairs).records
+    assert len(stored) == len(PAIRS) + len(predicted) + 4
     assert [p.name for p in out.parent.iterdir() if ".staging-" in p.name] == []
 
 

@@ -28,7 +28,8 @@ def add_parsers(commands: Any) -> None:
     build.add_argument("--strict", action="store_true",
                        help="fail on any warning (an external asset among them)")
     build.add_argument("--only", action="append", default=[], metavar="PAIR",
-                       help="build only this pair id (repeatable; for quick previews)")
+                       help="build only this catalogued pair id, without predicted pages "
+                       "(repeatable; for quick previews)")
     build.add_argument("--keep-source", type=Path, default=None, metavar="DIR",
                        help="keep the generated Markdown, figures and mkdocs.yml in DIR")
     build.add_argument("--workers", type=int, default=None,

@@ -199,7 +199,8 @@ def build_site(catalogue_dir: Path | str = DEFAULT_CATALOGUE, out_dir: Path | st
         t = start("compute")
         # Predicted pairs (site setting predicted_pairs) are worked on like fitted ones,
         # from a catalogue that holds their predicted records beside the fitted sets.
-        selection = select_predicted(catalogue, settings.predicted_pairs)
+        # A build of named pairs (--only, a quick preview) builds those pairs alone.
+        selection = select_predicted(catalogue, () if only else settings.predicted_pairs)
         if selection.not_in_catalogue:
             say(f"  predicted_pairs: {', '.join(selection.not_in_catalogue)} not in this "
                 "catalogue; skipped")
