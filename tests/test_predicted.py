@@ -97,6 +97,17 @@ def test_compute_pair_with_an_ideal_vapour(catalogue: Catalogue) -> None:
     assert isobar.curve.converged.all() and isobar.quicklook is not None
 
 
+def test_quick_look_of_a_pair_too_volatile_to_evaluate(catalogue: Catalogue) -> None:
+    # Ethane over benzyl alcohol (normal boiling points -89 °C and 205 °C): the bubble vapour
+    # of the requested split is ethane to 1 - 1e-17, so 1 - y is zero in double precision.
+    # The quick look says so instead of failing the whole build with a division by zero.
+    record = predicted_pair(catalogue.components["benzyl-alcohol"],
+                            catalogue.components["ethane"])
+    (isobar,) = compute_pair(catalogue, record).isobars
+    assert isobar.quicklook is not None and isobar.quicklook.stages_min is None
+    assert "too large to evaluate" in isobar.quicklook.reason
+
+
 @settings(max_examples=40, deadline=None)
 @given(data=st.data(), z=st.floats(0.0, 1.0), P_kPa=st.floats(20.0, 300.0))
 def test_bubble_below_dew_and_round_trip(data: st.DataObject, z: float, P_kPa: float,

@@ -363,6 +363,12 @@ def quick_look(system: eq.BinarySystem, P_Pa: float, azeotropes: tuple[Azeotrope
         return y1 if top_is_1 else 1.0 - y1
 
     y_top, y_bottom = y_star_at(u_top), y_star_at(u_bottom)
+    if not (0.0 < y_top < 1.0 and 0.0 < y_bottom < 1.0):
+        # The vapour is pure to round-off (e.g. ethane over benzyl alcohol, α near 1e15):
+        # α cannot be evaluated, and there is nothing for a column to do.
+        return _replace(base, reason="the relative volatility is too large to evaluate (the "
+                        "equilibrium vapour is pure to within round-off): a single "
+                        "equilibrium stage already makes this split")
     alpha_top = (y_top / (1 - y_top)) / (u_top / (1 - u_top))
     alpha_bottom = (y_bottom / (1 - y_bottom)) / (u_bottom / (1 - u_bottom))
     fenske = fenske_stages(u_top, u_bottom, math.sqrt(alpha_top * alpha_bottom))
