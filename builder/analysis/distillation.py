@@ -363,7 +363,7 @@ def quick_look(system: eq.BinarySystem, P_Pa: float, azeotropes: tuple[Azeotrope
         return y1 if top_is_1 else 1.0 - y1
 
     y_top, y_bottom = y_star_at(u_top), y_star_at(u_bottom)
-    if not (0.0 < y_top < 1.0 and 0.0 < y_bottom < 1.0):
+    if min(y_top, y_bottom) <= 0.0 or max(y_top, y_bottom) >= 1.0:  # (NaN goes on)
         # The vapour is pure to round-off (e.g. ethane over benzyl alcohol, α near 1e15):
         # α cannot be evaluated, and there is nothing for a column to do.
         return _replace(base, reason="the relative volatility is too large to evaluate (the "
