@@ -196,7 +196,8 @@ def _solve(kind: str, system: BinarySystem, z: FloatArray, condition: FloatArray
 
     if start is None:
         raoult = eq.BinarySystem(system.psat1, system.psat2, Ideal())
-        guess = getattr(eq, kind)(raoult, z, condition)
+        guess = (eq.bubble_temperature(raoult, z, condition, newton_first=False)
+                 if kind == "bubble_temperature" else getattr(eq, kind)(raoult, z, condition))
         free0, v0 = guess.T_K if by_T else guess.P_Pa, guess.y1 if bubble else guess.x1
     else:
         free0, v0 = start

@@ -33,12 +33,18 @@ import numpy as np
 from numpy.typing import ArrayLike, NDArray
 
 from builder.thermo.activity import ActivityModel, Swapped
-from builder.thermo.solvers import Function, RootResult, expand_bracket_values, solve_bracketed
+from builder.thermo.bubble_vapour import bubble_vapour
+from builder.thermo.solvers import (
+    Function,
+    RootResult,
+    expand_bracket_values,
+    solve_bracketed,
+    solve_newton,
+)
 from builder.thermo.vapour import (
     IDEAL_GAS,
     IdealGas,
     VapourModel,
-    correction_at,
     ln_correction,
 )
 from builder.thermo.vapour_pressure import VapourPressure
@@ -60,6 +66,10 @@ LnC = tuple[FloatArray, FloatArray]
 #: Successive-substitution limits of the real-vapour loops (tolerances in y and ln P).
 _SUBSTITUTIONS = 200
 _SUBSTITUTION_TOL = 1e-12
+#: Bubble temperatures: plain Newton steps (in 1000 K/T) tried before a bracketed solve, and
+#: their limit per step (0.3 is about 40 K at 360 K).
+_NEWTON_STEPS = 8
+_NEWTON_MAX_STEP = 0.3
 
 
 @dataclass(frozen=True)
@@ -225,25 +235,14 @@ def _bubble_vapour(
     For a real vapour ``y`` is found by successive substitution
     ``y_i ∝ x_i γ_i P_i^sat c_i(y)``; for an ideal gas it is explicit.
     """
-    p1, p2, ln_g1, ln_g2 = _partial_pressures(system, x1, T)
-    y = p1 / (p1 + p2)
-    ok = np.ones_like(y, dtype=bool)
     if system.ideal_vapour:
-        return p1, p2, ln_g1, ln_g2, y, ok
-    base1, base2 = p1, p2
-    ok = np.zeros_like(y, dtype=bool)
-    correction = correction_at(system.vapour, T, P, system.psat1.pressure_Pa(T),
-                               system.psat2.pressure_Pa(T))
-    for _ in range(_SUBSTITUTIONS):
-        c1, c2 = correction(y)
-        c1, c2 = np.clip(c1, -50.0, 50.0), np.clip(c2, -50.0, 50.0)
-        p1, p2 = base1 * np.exp(c1), base2 * np.exp(c2)
-        y_new = p1 / (p1 + p2)
-        ok = np.abs(y_new - y) <= _SUBSTITUTION_TOL
-        y = y_new
-        if ok.all():
-            break
-    return p1, p2, ln_g1, ln_g2, y, ok
+        p1, p2, ln_g1, ln_g2 = _partial_pressures(system, x1, T)
+        return p1, p2, ln_g1, ln_g2, p1 / (p1 + p2), np.ones(p1.shape, dtype=bool)
+    ln_g1, ln_g2 = system.activity.ln_gamma(x1, T)
+    ps1, ps2 = system.psat1.pressure_Pa(T), system.psat2.pressure_Pa(T)
+    p1, p2 = x1 * np.exp(ln_g1) * ps1, (1.0 - x1) * np.exp(ln_g2) * ps2
+    q1, q2, y, ok = bubble_vapour(system.vapour, p1, p2, T, P, ps1, ps2)
+    return q1, q2, ln_g1, ln_g2, y, ok
 
 
 def _phi(system: BinarySystem, y1: FloatArray, T: FloatArray, P: FloatArray
@@ -346,27 +345,64 @@ def dew_pressure(system: BinarySystem, y1: ArrayLike, T_K: ArrayLike) -> Equilib
 
 
 def _temperature_solve(system: BinarySystem, P: FloatArray, z1: FloatArray,
-                       residual: Function) -> RootResult:
+                       residual: Function, newton_first: bool = False) -> RootResult:
     """Solve ``residual(T) = 0`` for a temperature at ``P``, every point at once.
 
     The bracket starts at the pure components' saturation temperatures and is
     widened until ``residual`` changes sign (an azeotrope may boil outside
     that span); the first guess interpolates the two by the composition ``z1``.
+    With ``newton_first`` plain Newton steps from that guess come first
+    (:func:`solve_newton`: no evaluations spent on the bracket), and only the
+    points they do not settle are bracketed and solved as above.
     """
     T1 = np.asarray(system.psat1.temperature_K(P), dtype=float)
     T2 = np.asarray(system.psat2.temperature_K(P), dtype=float)
+    first: RootResult | None = None
+    points = np.arange(P.size)
+    if newton_first:
+        # In u = 1000 K / T, in which ln P_sat is nearly linear (Clausius-Clapeyron).
+        def in_u(u: FloatArray, mask: BoolArray) -> FloatArray:
+            return residual(1000.0 / u, mask)
+
+        first = solve_newton(in_u, 1000.0 / (z1 * T1 + (1.0 - z1) * T2), maxiter=_NEWTON_STEPS,
+                             max_step=_NEWTON_MAX_STEP)
+        first = RootResult(root=1000.0 / first.root, converged=first.converged,
+                           residual=first.residual, iterations=first.iterations)
+        points = np.flatnonzero(~first.converged)
+        if points.size == 0:
+            return first
+        T1, T2, z1 = T1[points], T2[points], z1[points]
+        full = residual
+
+        def residual(T: FloatArray, mask: BoolArray) -> FloatArray:
+            inside = np.zeros(P.size, dtype=bool)
+            inside[points[mask]] = True
+            return full(T, inside)
+
     lo, hi, f_lo, f_hi = expand_bracket_values(
         residual, np.fmin(T1, T2) * 0.995, np.fmax(T1, T2) * 1.005, factor=1.02)
     guess = np.clip(z1 * T1 + (1.0 - z1) * T2, lo, hi)
-    return solve_bracketed(residual, lo, hi, guess, f_lo=f_lo, f_hi=f_hi)
+    solved = solve_bracketed(residual, lo, hi, guess, f_lo=f_lo, f_hi=f_hi)
+    if first is None:
+        return solved
+    root, converged, values = first.root.copy(), first.converged.copy(), first.residual.copy()
+    root[points], converged[points], values[points] = (solved.root, solved.converged,
+                                                       solved.residual)
+    return RootResult(root=root, converged=converged, residual=values,
+                      iterations=first.iterations + solved.iterations)
 
 
-def bubble_temperature(system: BinarySystem, x1: ArrayLike, P_Pa: ArrayLike) -> EquilibriumResult:
+def bubble_temperature(system: BinarySystem, x1: ArrayLike, P_Pa: ArrayLike, *,
+                       newton_first: bool = True) -> EquilibriumResult:
     """Bubble temperature and vapour composition of liquid ``x1`` at ``P_Pa``.
 
-    Solves ``ln(Σ x_i γ_i(T) P_i^sat(T) c_i) = ln P`` for T, all points at once,
-    bracketed between the pure components' saturation temperatures and
-    widened until it brackets (an azeotrope may boil outside that span).
+    Solves ``ln(Σ x_i γ_i(T) P_i^sat(T) c_i) = ln P`` for T, all points at once:
+    Newton steps in ``1000 K/T`` from a guess interpolated between the pure
+    components' boiling points; any point they leave unsettled is bracketed
+    between those boiling points, widened until it brackets (an azeotrope may
+    boil outside that span), and solved by bracketed Newton.  ``newton_first=False``
+    brackets every point from the start (the starting values of the φ–φ solver
+    are made so: its search near a critical point is sensitive to them at round-off).
     """
     x, P, shape = _as_points(x1, P_Pa)
     _check_fractions("x1", x)
@@ -378,7 +414,7 @@ def bubble_temperature(system: BinarySystem, x1: ArrayLike, P_Pa: ArrayLike) -> 
         p1, p2, _, _, _, _ = _bubble_vapour(system, x[mask], T, P[mask])
         return np.log(p1 + p2) - ln_P[mask]
 
-    solved = _temperature_solve(system, P, x, residual)
+    solved = _temperature_solve(system, P, x, residual, newton_first=newton_first)
     T = solved.root
     _, _, ln_g1, ln_g2, y, inner_ok = _bubble_vapour(system, x, T, P)
     ok = solved.converged & np.isfinite(y) & inner_ok

@@ -25,7 +25,8 @@ from dataclasses import dataclass
 import numpy as np
 from numpy.typing import NDArray
 
-__all__ = ["RootResult", "expand_bracket", "expand_bracket_values", "solve_bracketed"]
+__all__ = ["RootResult", "expand_bracket", "expand_bracket_values", "solve_bracketed",
+           "solve_newton"]
 
 FloatArray = NDArray[np.float64]
 Function = Callable[[FloatArray, NDArray[np.bool_]], FloatArray]
@@ -172,6 +173,59 @@ def solve_bracketed(
 
     return RootResult(root=u, converged=converged & bracketed | (exact_lo | exact_hi),
                       residual=residual, iterations=iteration)
+
+
+def solve_newton(
+    f: Function,
+    u0: FloatArray,
+    *,
+    xtol: float = 1e-12,
+    ftol: float = 1e-13,
+    maxiter: int = 8,
+    max_step: float = np.inf,
+    relative_step: float = 1e-7,
+) -> RootResult:
+    """Solve ``f(u) = 0`` for every point by plain Newton steps from ``u0``, no bracket.
+
+    ``u ← u - f(u)/f'(u)`` with the derivative by a forward difference (step
+    ``relative_step · max(|u|, 1)``), each step limited to ``max_step``.  A point
+    converges when ``|f| ≤ ftol`` or a full (unlimited) step is at most
+    ``xtol · max(|u|, 1)``, the tests of :func:`solve_bracketed`; the root is then
+    the point after that step.  Meant as a fast first pass from good starting values
+    where ``f`` is smooth and monotonic: a point that does not converge within
+    ``maxiter`` steps, or meets a non-finite value, is returned unconverged for the
+    caller to hand to :func:`solve_bracketed`.
+
+    >>> r = solve_newton(lambda u, m: u**3 - np.array([1.0, 8.0, 27.0])[m],
+    ...                  np.array([1.2, 2.5, 2.8]))
+    >>> np.round(r.root, 12).tolist(), r.converged.tolist()
+    ([1.0, 2.0, 3.0], [True, True, True])
+    """
+    u = np.array(u0, dtype=float, copy=True)
+    n = u.size
+    converged = np.zeros(n, dtype=bool)
+    active = np.isfinite(u)
+    residual = np.full(n, np.nan)
+    iteration = 0
+    for iteration in range(1, maxiter + 1):  # noqa: B007 - reported in the result
+        idx = np.flatnonzero(active)
+        if idx.size == 0:
+            break
+        mask = np.zeros(n, dtype=bool)
+        mask[idx] = True
+        ua = u[idx]
+        h = relative_step * np.maximum(np.abs(ua), 1.0)
+        fa = f(ua, mask)
+        with np.errstate(divide="ignore", invalid="ignore"):
+            step = fa * h / (f(ua + h, mask) - fa)
+        residual[idx] = fa
+        finite = np.isfinite(step) & np.isfinite(fa)
+        scale = np.maximum(np.abs(ua), 1.0)
+        done = finite & ((np.abs(fa) <= ftol) | (np.abs(step) <= xtol * scale))
+        u[idx] = ua - np.where(finite, np.clip(step, -max_step, max_step), 0.0)
+        converged[idx[done]] = True
+        active[idx[done | ~finite]] = False
+    return RootResult(root=u, converged=converged, residual=residual, iterations=iteration)
 
 
 def expand_bracket(
