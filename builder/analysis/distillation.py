@@ -40,8 +40,8 @@ from builder.analysis.azeotropes import Azeotrope
 from builder.analysis.stability import ThreePhase
 from builder.thermo import equilibrium as eq
 
-__all__ = ["QuickLook", "Split", "fenske_stages", "quick_look", "total_reflux_stages",
-           "underwood_minimum_reflux"]
+__all__ = ["QuickLook", "Split", "fenske_stages", "quick_look", "quick_look_compositions",
+           "total_reflux_stages", "underwood_minimum_reflux"]
 
 FloatArray = NDArray[np.float64]
 Equilibrium = Callable[[FloatArray], FloatArray]
@@ -294,20 +294,64 @@ def _stretches(azeotropes: tuple[Azeotrope, ...]) -> list[tuple[float, float]]:
     return list(itertools.pairwise(edges))
 
 
+def quick_look_compositions(requested: Split) -> FloatArray:
+    """The liquid compositions (x1) whose bubble points :func:`quick_look` asks for first
+    when ``requested`` crosses no azeotrope: the split's ends and the grids of the stage
+    count and of both pinch searches.  Solved beforehand with the curve (one call), they
+    are handed to :func:`quick_look` as ``presolved``.
+
+    >>> x = quick_look_compositions(Split(0.95, 0.05, 0.5))
+    >>> x.size, float(x[0]), float(x.min()), float(x.max())
+    (606, 0.5, 0.05, 0.95)
+    """
+    d, b, f = requested.distillate_x1, requested.bottoms_x1, requested.feed_x1
+    low, high = sorted((b, d))
+    asked = _asked(0.5 * (low + high), (d, b))
+    top_is_1 = d > b  # the only orientation in which the split can be made
+
+    def to_u(x1: float) -> float:
+        return x1 if top_is_1 else 1.0 - x1
+
+    u_top, u_bottom, u_feed = to_u(d), to_u(b), to_u(f)
+    if not (u_bottom < u_feed < u_top):
+        return asked
+    u = np.concatenate([_guide_grid(u_bottom, u_top), *_reflux_grids(u_bottom, u_feed, u_top)])
+    return np.concatenate([asked, u if top_is_1 else 1.0 - u])
+
+
+def _asked(mid: float, ends: tuple[float, float]) -> FloatArray:
+    """The middle of the split and its ends, in either orientation (``1 - (1 - e)`` is the
+    float the other orientation computes for ``e``)."""
+    return np.array([mid, *ends, *(1.0 - (1.0 - e) for e in ends)])
+
+
 def quick_look(system: eq.BinarySystem, P_Pa: float, azeotropes: tuple[Azeotrope, ...],
                three_phase: ThreePhase | None, requested: Split,
-               light_component: int) -> QuickLook:
+               light_component: int, presolved: eq.EquilibriumResult | None = None
+               ) -> QuickLook:
     """Minimum stages and minimum reflux on the isobar ``P_Pa`` for ``requested``.
 
     ``light_component`` (1 or 2) is the lower-boiling pure component; the
     default split is stated for it.  When the requested split crosses an
     azeotrope, the split is moved to the reachable side: the azeotrope-free
     stretch holding the feed, 5 % of its width in from either end.
+    ``presolved``: bubble points at ``P_Pa`` already solved (e.g. at
+    :func:`quick_look_compositions`); a liquid found there is not solved again.
     """
+    table: dict[float, float] = {}
+    if presolved is not None:
+        table = dict(zip(presolved.x1.tolist(),
+                         np.where(presolved.converged, presolved.y1, np.nan).tolist(),
+                         strict=True))
 
     def y1_of_x1(x1: FloatArray) -> FloatArray:
-        result = eq.bubble_temperature(system, x1, P_Pa)
-        y = np.where(result.converged, result.y1, np.nan)
+        x1 = np.asarray(x1, dtype=float)
+        values = x1.tolist()
+        y = np.array([table.get(v, np.nan) for v in values], dtype=float)
+        missing = [i for i, v in enumerate(values) if v not in table]
+        if missing:
+            result = eq.bubble_temperature(system, x1[missing], P_Pa)
+            y[missing] = np.where(result.converged, result.y1, np.nan)
         if three_phase is not None:
             inside = (x1 > three_phase.x1_a) & (x1 < three_phase.x1_b)
             y = np.where(inside, three_phase.y1, y)
@@ -333,7 +377,7 @@ def quick_look(system: eq.BinarySystem, P_Pa: float, azeotropes: tuple[Azeotrope
     # at the split's ends, in either orientation, are solved in the same call.
     mid = 0.5 * (low + high)
     ends = ((low, high) if crossing else (requested.distillate_x1, requested.bottoms_x1))
-    asked = np.array([mid, *ends, *(1.0 - (1.0 - e) for e in ends)])
+    asked = _asked(mid, ends)
     known = dict(zip(asked.tolist(), y1_of_x1(asked).tolist(), strict=True))
     top_is_1 = bool(known[mid] > mid)
     if crossing:

@@ -20,7 +20,7 @@ from numpy.typing import NDArray
 from builder.analysis import curves
 from builder.analysis.azeotropes import search_grid
 from builder.analysis.checks import check_pair
-from builder.analysis.distillation import Split, quick_look
+from builder.analysis.distillation import Split, quick_look, quick_look_compositions
 from builder.analysis.point import system_for
 from builder.analysis.record import (
     ATMOSPHERIC_PA,
@@ -78,6 +78,7 @@ def _condition(catalogue: Catalogue, pair: PairRecord, kind: str, value: float
     c2 = catalogue.components[pair.component2]
     isobar = kind == "isobar"
     table_points: eq.EquilibriumResult | None = None
+    presolved: eq.EquilibriumResult | None = None
     if system.phi_phi:
         # φ–φ: the curve may end at a critical point or not exist (curves handles both).
         curve = curves.isobar(system, value) if isobar else curves.isotherm(system, value)
@@ -85,13 +86,18 @@ def _condition(catalogue: Catalogue, pair: PairRecord, kind: str, value: float
             return _no_two_phase(kind, value, curve)
         phases = analyse(system, pair.model, isobar, value, curve)
     else:
-        # The curve, the azeotrope search grid and the table's round compositions: one solve.
-        parts = (curves.composition_grid(), search_grid(), ROUND_COMPOSITIONS)
+        # The curve, the azeotrope search grid, the table's round compositions and (on an
+        # isobar) the quick look's liquids for a split that crosses no azeotrope: one solve.
+        parts = [curves.composition_grid(), search_grid(), ROUND_COMPOSITIONS]
+        if isobar:
+            parts.append(quick_look_compositions(
+                _default_split(pair, _light_component(c1, c2, value))))
         solved = (eq.bubble_temperature if isobar else eq.bubble_pressure)(
             system, np.concatenate(parts), value)
         ends = np.cumsum([0] + [p.size for p in parts])
-        curve_points, search_points, table_points = (
+        curve_points, search_points, table_points, *rest = (
             _part(solved, slice(a, b)) for a, b in itertools.pairwise(ends))
+        presolved = rest[0] if rest else None
         curve = curves.from_bubble(kind, system, curve_points)
         phases = analyse(system, pair.model, isobar, value, curve, search_points)
     warnings = list(phases.warnings)
@@ -126,7 +132,8 @@ def _condition(catalogue: Catalogue, pair: PairRecord, kind: str, value: float
     look = None
     if isobar:
         light = _light_component(c1, c2, value)
-        look = quick_look(system, value, found, three_phase, _default_split(pair, light), light)
+        look = quick_look(system, value, found, three_phase, _default_split(pair, light), light,
+                          presolved)
     return ConditionResult(kind=kind, condition=value, curve=curve, drawable=drawable,
                            extrapolated=extrapolated, azeotropes=tuple(found),
                            # Past a critical point there is no two-phase region to search.
