@@ -27,7 +27,9 @@ solution; the liquid-stability analysis is a separate step.
 
 from __future__ import annotations
 
+from collections.abc import Callable
 from dataclasses import dataclass, fields
+from typing import Any
 
 import numpy as np
 from numpy.typing import ArrayLike, NDArray
@@ -35,7 +37,6 @@ from numpy.typing import ArrayLike, NDArray
 from builder.thermo.activity import ActivityModel, Swapped
 from builder.thermo.bubble_vapour import bubble_vapour
 from builder.thermo.solvers import (
-    Function,
     RootResult,
     expand_bracket_values,
     solve_bracketed,
@@ -345,7 +346,8 @@ def dew_pressure(system: BinarySystem, y1: ArrayLike, T_K: ArrayLike) -> Equilib
 
 
 def _temperature_solve(system: BinarySystem, P: FloatArray, z1: FloatArray,
-                       residual: Function, newton_first: bool = False) -> RootResult:
+                       residual: Callable[[FloatArray, NDArray[Any]], FloatArray],
+                       newton_first: bool = False) -> RootResult:
     """Solve ``residual(T) = 0`` for a temperature at ``P``, every point at once.
 
     The bracket starts at the pure components' saturation temperatures and is
@@ -361,8 +363,8 @@ def _temperature_solve(system: BinarySystem, P: FloatArray, z1: FloatArray,
     points = np.arange(P.size)
     if newton_first:
         # In u = 1000 K / T, in which ln P_sat is nearly linear (Clausius-Clapeyron).
-        def in_u(u: FloatArray, mask: BoolArray) -> FloatArray:
-            return residual(1000.0 / u, mask)
+        def in_u(u: FloatArray, index: NDArray[np.intp]) -> FloatArray:
+            return residual(1000.0 / u, index)
 
         first = solve_newton(in_u, 1000.0 / (z1 * T1 + (1.0 - z1) * T2), maxiter=_NEWTON_STEPS,
                              max_step=_NEWTON_MAX_STEP)
@@ -410,7 +412,7 @@ def bubble_temperature(system: BinarySystem, x1: ArrayLike, P_Pa: ArrayLike, *,
         return _reshape(_phi_phi("bubble_temperature", system, x, P), shape)
     ln_P = np.log(P)
 
-    def residual(T: FloatArray, mask: BoolArray) -> FloatArray:
+    def residual(T: FloatArray, mask: NDArray[Any]) -> FloatArray:  # a mask or indices
         p1, p2, _, _, _, _ = _bubble_vapour(system, x[mask], T, P[mask])
         return np.log(p1 + p2) - ln_P[mask]
 

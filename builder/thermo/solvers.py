@@ -25,11 +25,13 @@ from dataclasses import dataclass
 import numpy as np
 from numpy.typing import NDArray
 
-__all__ = ["RootResult", "expand_bracket", "expand_bracket_values", "solve_bracketed",
-           "solve_newton"]
+__all__ = ["Function", "IndexFunction", "RootResult", "expand_bracket", "expand_bracket_values",
+           "solve_bracketed", "solve_newton"]
 
 FloatArray = NDArray[np.float64]
 Function = Callable[[FloatArray, NDArray[np.bool_]], FloatArray]
+#: ``f(u, index)`` of :func:`solve_newton`: the points' integer indices, each possibly twice.
+IndexFunction = Callable[[FloatArray, NDArray[np.intp]], FloatArray]
 
 
 @dataclass(frozen=True)
@@ -176,7 +178,7 @@ def solve_bracketed(
 
 
 def solve_newton(
-    f: Function,
+    f: IndexFunction,
     u0: FloatArray,
     *,
     xtol: float = 1e-12,
@@ -188,7 +190,10 @@ def solve_newton(
     """Solve ``f(u) = 0`` for every point by plain Newton steps from ``u0``, no bracket.
 
     ``u ← u - f(u)/f'(u)`` with the derivative by a forward difference (step
-    ``relative_step · max(|u|, 1)``), each step limited to ``max_step``.  A point
+    ``relative_step · max(|u|, 1)``), each step limited to ``max_step``.  Unlike
+    :func:`solve_bracketed`, ``f(u, index)`` receives the integer indices of the points
+    (not a mask), and each point twice per call: ``u`` and ``u + h`` are evaluated
+    in one call, which halves the calls (each has a fixed cost whatever its size).  A point
     converges when ``|f| ≤ ftol`` or a full (unlimited) step is at most
     ``xtol · max(|u|, 1)``, the tests of :func:`solve_bracketed`; the root is then
     the point after that step.  Meant as a fast first pass from good starting values
@@ -211,13 +216,12 @@ def solve_newton(
         idx = np.flatnonzero(active)
         if idx.size == 0:
             break
-        mask = np.zeros(n, dtype=bool)
-        mask[idx] = True
         ua = u[idx]
         h = relative_step * np.maximum(np.abs(ua), 1.0)
-        fa = f(ua, mask)
+        both = f(np.concatenate([ua, ua + h]), np.concatenate([idx, idx]))
+        fa = both[:idx.size]
         with np.errstate(divide="ignore", invalid="ignore"):
-            step = fa * h / (f(ua + h, mask) - fa)
+            step = fa * h / (both[idx.size:] - fa)
         residual[idx] = fa
         finite = np.isfinite(step) & np.isfinite(fa)
         scale = np.maximum(np.abs(ua), 1.0)
