@@ -30,6 +30,7 @@ import numpy as np
 from numpy.typing import ArrayLike, NDArray
 from scipy.optimize import brentq, fsolve
 
+from builder.analysis.convexity import convex_temperatures
 from builder.analysis.phase_lines import three_phase_points
 from builder.thermo import equilibrium as eq
 from builder.thermo.activity import ActivityModel, Ideal, Swapped, Wilson
@@ -114,7 +115,10 @@ def stable(model: ActivityModel, x1: ArrayLike, T_K: ArrayLike) -> NDArray[np.bo
 
     ``x1`` and ``T_K`` broadcast (an isobar has one temperature per point).  The
     tangent at ``x1`` has slope ``ln a1 - ln a2``; the liquid is stable when no
-    trial composition lies below it.  Pure components are stable.
+    trial composition lies below it.  Pure components are stable, and so is every
+    liquid at a temperature where ``Δg_mix`` is proven convex in x1
+    (:func:`builder.analysis.convexity.convex_temperatures`, a cheaper sufficient
+    test tried first).
 
     >>> from builder.thermo.activity import Margules
     >>> stable(Margules.constant(3.0, 3.0), [0.02, 0.5, 0.98], 300.0).tolist()
@@ -125,6 +129,12 @@ def stable(model: ActivityModel, x1: ArrayLike, T_K: ArrayLike) -> NDArray[np.bo
     inner = (x > 0.0) & (x < 1.0)
     result = np.ones(x.shape, dtype=bool)
     if not inner.any() or one_liquid_only(model):
+        return result
+    # Where Δg_mix is proven convex at the point's temperature every composition is stable
+    # (:mod:`.convexity`, a cheap sufficient test); the tangent plane tests the rest.
+    temperatures, at = np.unique(T[inner], return_inverse=True)
+    inner[inner] = ~convex_temperatures(model, temperatures)[at.ravel()]
+    if not inner.any():
         return result
     xi, Ti = x[inner], T[inner]
     ln_g1, ln_g2 = model.ln_gamma(xi, Ti)
