@@ -1,11 +1,10 @@
-"""Phase behaviour of one condition, and the azeotrope traced against pressure.
+"""The azeotrope traced against pressure.
 
-:func:`analyse` combines the liquid-stability test, the three-phase line and
-the azeotrope search for one isobar or isotherm; :func:`trace_azeotrope`
-follows one azeotrope over a range of pressures by solving its own equations at
-every pressure at once (:mod:`.phase_lines`), analysing a pressure in full only
-where that cannot settle it.  Both return plain records for
-:mod:`builder.analysis.results`.
+:func:`trace_azeotrope` follows one azeotrope over a range of pressures by solving
+its own equations at every pressure at once (:mod:`.phase_lines`), analysing the
+pressures that cannot be settled so in full (:func:`.phases.analyse_isobars`,
+all of them together).  :func:`analyse` (one condition's phase behaviour) lives in
+:mod:`.phases` and is re-exported here.
 """
 
 from __future__ import annotations
@@ -17,14 +16,9 @@ import numpy as np
 from numpy.typing import NDArray
 
 from builder.analysis import curves, stability
-from builder.analysis.azeotropes import (
-    KIND_ISOBAR,
-    KIND_ISOTHERM,
-    Azeotrope,
-    find_azeotropes,
-    search_grid,
-)
+from builder.analysis.azeotropes import KIND_ISOBAR, Azeotrope
 from builder.analysis.phase_lines import azeotrope_points, three_phase_points
+from builder.analysis.phases import Phases, analyse, analyse_isobars
 from builder.thermo import equilibrium as eq
 from builder.thermo.activity import ActivityModel
 
@@ -36,73 +30,6 @@ _TRACE_GRID = curves.composition_grid(61)
 #: Common practice: a shift of 5 mol % or more across the pressure range is a first hint
 #: that pressure-swing distillation deserves a look.
 PRESSURE_SWING_SHIFT = 0.05
-
-
-@dataclass(frozen=True)
-class Phases:
-    liquid_stable: NDArray[np.bool_]
-    three_phase: stability.ThreePhase | None
-    inside_gap: NDArray[np.bool_]
-    azeotropes: tuple[Azeotrope, ...]
-    complete: bool
-    warnings: tuple[str, ...]
-
-
-def analyse(system: eq.BinarySystem, model: ActivityModel, isobar: bool, value: float,
-            curve: curves.Curve, searched: eq.EquilibriumResult | None = None) -> Phases:
-    """Liquid stability along a curve, the three-phase line and every azeotrope.
-
-    ``searched``: the bubble points of :func:`.azeotropes.search_grid` at this condition,
-    when already solved.
-    """
-    warnings: list[str] = []
-    liquid_stable = stability.stable(model, curve.x1, curve.T_K)
-    three_phase = None
-    inside_gap = ~liquid_stable
-    if not liquid_stable.all():
-        if isobar:
-            unstable = ~liquid_stable & curve.converged
-            guess = float(np.min(curve.T_K[unstable]))
-            x_unstable = curve.x1[unstable]
-            three_phase = stability.three_phase_isobar(
-                system, value, guess, (float(x_unstable.min()), float(x_unstable.max())))
-        else:
-            three_phase = stability.three_phase_isotherm(system, value)
-        if three_phase is None:
-            warnings.append("the model predicts two liquids here but the three-phase point "
-                            "could not be located; the curve inside that region is not drawn")
-        else:
-            inside_gap = (curve.x1 > three_phase.x1_a) & (curve.x1 < three_phase.x1_b)
-            inside_gap |= ~liquid_stable
-    search = find_azeotropes(system, P_Pa=value if isobar else None,
-                             T_K=None if isobar else value,
-                             exclude=None if liquid_stable.all() else _search_exclusion(
-                                 system, model, value, isobar, three_phase),
-                             bubble=searched)
-    found = list(search.azeotropes)
-    if three_phase is not None and three_phase.heterogeneous_azeotrope:
-        found.append(Azeotrope(
-            x1=three_phase.y1, T_K=three_phase.T_K, P_Pa=three_phase.P_Pa,
-            kind=(KIND_ISOBAR if isobar else KIND_ISOTHERM)[True], heterogeneous=True,
-            liquid_x1=(three_phase.x1_a, three_phase.x1_b)))
-        found.sort(key=lambda a: a.x1)
-    if not search.complete:
-        warnings.append("the azeotrope search could not cover the whole composition range")
-    return Phases(liquid_stable, three_phase, inside_gap, tuple(found), search.complete,
-                   tuple(warnings))
-
-
-def _search_exclusion(system: eq.BinarySystem, model: ActivityModel, value: float,
-                      isobar: bool, three_phase: stability.ThreePhase | None) -> NDArray[np.bool_]:
-    """Grid points of the azeotrope search that lie in the two-liquid region."""
-    grid = search_grid()
-    if three_phase is not None:
-        return np.asarray((grid > three_phase.x1_a) & (grid < three_phase.x1_b))
-    result = (eq.bubble_temperature(system, grid, value) if isobar
-              else eq.bubble_pressure(system, grid, value))
-    return ~stability.stable(model, grid, result.T_K)
-
-
 
 
 def _continue(solve: Callable[[int, int], bool], ok: NDArray[np.bool_], start: int) -> None:
@@ -161,11 +88,12 @@ def _follow(system: eq.BinarySystem, model: ActivityModel, reference: Azeotrope,
     rest = np.flatnonzero(~settled)
     if rest.size:
         settled[rest] = _none_of_kind(system, model, reference.kind, pressures[rest])
-    for i in np.flatnonzero(~settled):
-        phases = analyse(system, model, True, float(pressures[i]),
-                         curves.isobar(system, float(pressures[i]), _TRACE_GRID))
-        same = [a for a in phases.azeotropes if a.kind == reference.kind]
-        found[i] = min(same, key=lambda a: abs(a.x1 - reference.x1)) if same else None
+    rest = np.flatnonzero(~settled)
+    if rest.size:
+        analysed = analyse_isobars(system, model, pressures[rest], _TRACE_GRID)
+        for i, (_, phases) in zip(rest, analysed, strict=True):
+            same = [a for a in phases.azeotropes if a.kind == reference.kind]
+            found[i] = min(same, key=lambda a: abs(a.x1 - reference.x1)) if same else None
     return found
 
 
