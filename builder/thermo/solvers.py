@@ -195,8 +195,13 @@ def solve_newton(
     (not a mask), and each point twice per call: ``u`` and ``u + h`` are evaluated
     in one call, which halves the calls (each has a fixed cost whatever its size).  A point
     converges when ``|f| ≤ ftol`` or a full (unlimited) step is at most
-    ``xtol · max(|u|, 1)``, the tests of :func:`solve_bracketed`; the root is then
-    the point after that step.  Meant as a fast first pass from good starting values
+    ``xtol · max(|u|, 1)``, the tests of :func:`solve_bracketed`, or when the
+    convergence is visibly quadratic and the error left after the step is far below
+    that: a step ``s_k`` of at most ``1e-6 · max(|u|, 1)`` and a tenth of the one
+    before, whose estimated remaining error ``K s_k²`` (``K = |s_k| / s_(k-1)²``, the
+    ratio of Newton's error law ``e_(k+1) = K e_k²``) is below ``xtol/100`` of the
+    scale; this saves the last step, which would only confirm.  The root is the
+    point after the converging step.  Meant as a fast first pass from good starting values
     where ``f`` is smooth and monotonic: a point that does not converge within
     ``maxiter`` steps, or meets a non-finite value, is returned unconverged for the
     caller to hand to :func:`solve_bracketed`.
@@ -211,6 +216,7 @@ def solve_newton(
     converged = np.zeros(n, dtype=bool)
     active = np.isfinite(u)
     residual = np.full(n, np.nan)
+    previous = np.full(n, np.inf)
     iteration = 0
     for iteration in range(1, maxiter + 1):  # noqa: B007 - reported in the result
         idx = np.flatnonzero(active)
@@ -225,7 +231,12 @@ def solve_newton(
         residual[idx] = fa
         finite = np.isfinite(step) & np.isfinite(fa)
         scale = np.maximum(np.abs(ua), 1.0)
-        done = finite & ((np.abs(fa) <= ftol) | (np.abs(step) <= xtol * scale))
+        size, before = np.abs(step), previous[idx]
+        with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
+            quadratic = ((size <= 1e-6 * scale) & (size <= 0.1 * before)
+                         & (size**3 <= 0.01 * xtol * scale * before**2))
+        done = finite & ((np.abs(fa) <= ftol) | (size <= xtol * scale) | quadratic)
+        previous[idx] = size
         u[idx] = ua - np.where(finite, np.clip(step, -max_step, max_step), 0.0)
         converged[idx[done]] = True
         active[idx[done | ~finite]] = False
