@@ -13,15 +13,18 @@ depends on the vapour itself, so the bubble vapour solves
 
   ``h(u) = u - ln(p1/p2) - (a1 - a2) - s (2 y1 - 1) = 0``,  ``h'(u) = 1 - 2 s y1 y2``,
 
-  solved by Newton's method (``h' ≥ 1 - s/2 > 0`` for the ``|s| < 2`` of any vapour the
-  virial equation describes; ``|s|`` is a few hundredths at atmospheric pressure):
-  three or four steps to round-off, where successive substitution needs one step per
-  factor ``|s|/2`` of error.
+  solved by Newton's method where ``s < 1.5`` (then ``h' ≥ 1 - s/2 > 0``: ``h`` rises
+  monotonically and has one root, the fixed point that successive substitution, whose
+  step shrinks the error by ``s y1 y2 ≤ s/2``, converges to).  ``|s|`` is a few hundredths
+  at atmospheric pressure: three or four Newton steps reach round-off, where
+  substitution needs one step per factor ``|s|/2`` of error.  A larger ``s`` (a trial
+  temperature far below a component's range makes ``B`` diverge) can give several
+  roots; those points keep the substitution.
 * Any other vapour model: successive substitution ``y ← p1 c1(y) / Σ p_i c_i(y)``.
 
 In both, ``ln c_i`` is capped at ±50 (a trial temperature far outside the virial's
 range makes ``B``, and with it the correction, diverge); the Newton path leaves the
-rare points where the cap could bite to the substitution.  A point whose partial
+rare points where the cap could bite, or ``s ≥ 1.5``, to the substitution.  A point whose partial
 pressures are not finite and positive in sum has no vapour (NaN, not converged).
 """
 
@@ -43,6 +46,8 @@ NEWTON_STEPS = 30
 Y_TOLERANCE = 1e-12
 #: Cap on |ln c_i| (see the module text).
 LN_C_CAP = 50.0
+#: Newton only below this s (then h' ≥ 1 - s/2 > 0: one root, the one substitution finds).
+S_NEWTON = 1.5
 
 
 def bubble_vapour(vapour: VapourModel, p1: FloatArray, p2: FloatArray, T_K: FloatArray,
@@ -73,7 +78,9 @@ def bubble_vapour(vapour: VapourModel, p1: FloatArray, p2: FloatArray, T_K: Floa
     with np.errstate(all="ignore"):
         total = p1 + p2
         has_vapour = np.isfinite(total) & (total > 0)
-        capped = np.maximum(np.abs(a1), np.abs(a2)) + np.abs(s) > LN_C_CAP
+        # The substitution's own path where the cap could bite, or where h' may vanish.
+        capped = (np.maximum(np.abs(a1), np.abs(a2)) + np.abs(s) > LN_C_CAP) | ~(
+            s < S_NEWTON)
         inner = has_vapour & (p1 > 0) & (p2 > 0) & ~capped
         L = np.log(p1) - np.log(p2) + (a1 - a2)
         u = np.where(inner, L, 0.0)
