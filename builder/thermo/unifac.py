@@ -163,6 +163,8 @@ class _Prepared:
         temperatures (the tangent-plane test) costs one ``Ψ`` per temperature.
         """
         x1_a, T_a = np.asarray(x1, dtype=float), np.asarray(T_K, dtype=float)
+        if x1_a.ndim == 1 and T_a.shape == x1_a.shape and x1_a.size >= _POINTS_LAYOUT:
+            return self._points(x1_a, T_a)
         shape = np.broadcast_shapes(x1_a.shape, T_a.shape)
         x1v = x1_a[..., None]                                           # (*Sx, 1)
         x2v = 1.0 - x1v
@@ -189,6 +191,43 @@ class _Prepared:
         ln_g2 = ln_c[..., 1] + G @ self.nuQ[1] - pure[..., 1]
         return (np.broadcast_to(ln_g1, shape).copy() if ln_g1.shape != shape else ln_g1,
                 np.broadcast_to(ln_g2, shape).copy() if ln_g2.shape != shape else ln_g2)
+
+
+    def _points(self, x1: FloatArray, T: FloatArray) -> LnGamma:
+        """:meth:`ln_gamma` of n points, each at its own temperature (1-D ``x1`` and ``T``).
+
+        The same equations with the points as the last axis, ``Ψ`` laid out (M, M, n):
+        every operation runs over rows of n numbers instead of n small matrix products
+        (about twice as fast for the long arrays of a curve's bubble points).
+        """
+        x2 = 1.0 - x1
+        exponent = self.a[:, :, None] / T
+        if self.b is not None:
+            exponent = exponent + self.b[:, :, None]
+        if self.c is not None:
+            exponent = exponent + self.c[:, :, None] * T
+        psi = np.exp(-exponent)                                         # psi[N, M, k]
+        S = np.tensordot(self.theta_pure, psi, axes=(1, 0))             # (2, M, n)
+        inner = np.einsum("rNk,MNk->rMk", self.theta_pure[:, :, None] / S, psi)
+        pure = np.einsum("rM,rMk->rk", self.nuQ, 1.0 - np.log(S) - inner)  # (2, n)
+        mix = self.nuQ[0][:, None] * x1 + self.nuQ[1][:, None] * x2     # (M, n)
+        theta = mix / mix.sum(axis=0)
+        S_mix = np.einsum("Nk,NMk->Mk", theta, psi)
+        G = 1.0 - np.log(S_mix) - np.einsum("Nk,MNk->Mk", theta / S_mix, psi)
+        residual = self.nuQ @ G - pure                                  # (2, n)
+        out = []
+        for i in (0, 1):
+            V = self.r[i] / (x1 * self.r[0] + x2 * self.r[1])
+            F = self.q[i] / (x1 * self.q[0] + x2 * self.q[1])
+            Vp = self.r34[i] / (x1 * self.r34[0] + x2 * self.r34[1])
+            V_F = V / F
+            out.append(1.0 - Vp + np.log(Vp) - HALF_Z * self.q[i] * (1.0 - V_F + np.log(V_F))
+                       + residual[i])
+        return out[0], out[1]
+
+
+#: Points from which :meth:`_Prepared.ln_gamma` uses the layout with the points last.
+_POINTS_LAYOUT = 64
 
 
 def _G_rows(theta: FloatArray, psi: FloatArray) -> FloatArray:
