@@ -16,8 +16,9 @@ pressure, all pressures in one array computation:
 ``K_i`` are :func:`builder.thermo.equilibrium.k_values`, so the vapour model
 enters here exactly as in the bubble-point solvers.  Compositions are solved in
 log-odds ``s = ln(x/(1-x))``, which keeps them inside (0, 1); the Jacobian is a
-forward difference; steps are limited (1 in log-odds, 20 K) so that a poor start
-does not jump to another branch.  Each point reports whether it converged; a
+forward difference (the point and its displaced copies evaluated in one call);
+steps are limited (1 in log-odds, 20 K) so that a poor start does not jump to
+another branch.  Each point reports whether it converged; a
 point that did not is never to be used (the caller falls back to a search).
 
 Reference for the equations: J. M. Prausnitz, R. N. Lichtenthaler, E. G. de
@@ -73,13 +74,16 @@ def _newton(equations: Callable[[FloatArray, FloatArray], FloatArray], u0: Float
         if idx.size == 0:
             break
         ua, Pa = u[idx], P[idx]
-        f = equations(ua, Pa)
         h = 1e-7 * np.maximum(np.abs(ua), 1.0)
+        # The point and its m displaced copies (the Jacobian's columns) in one call.
+        trial = np.repeat(ua[None], m + 1, axis=0)                      # (m + 1, k, m)
+        for j in range(m):
+            trial[j + 1, :, j] += h[:, j]
+        values = equations(trial.reshape(-1, m), np.tile(Pa, m + 1)).reshape(m + 1, -1, m)
+        f = values[0]
         J = np.empty((idx.size, m, m))
         for j in range(m):
-            step = ua.copy()
-            step[:, j] += h[:, j]
-            J[:, :, j] = (equations(step, Pa) - f) / h[:, j, None]
+            J[:, :, j] = (values[j + 1] - f) / h[:, j, None]
         jac[idx] = J
         finite = np.asarray(np.isfinite(f).all(axis=1) & np.isfinite(J).all(axis=(1, 2)),
                             dtype=bool)
