@@ -186,10 +186,16 @@ def k_values(
     K1, K2 = np.exp(ln_g1) * ps1 / P, np.exp(ln_g2) * ps2 / P
     if system.ideal_vapour:
         return K1, K2
-    if y1 is None:
+    if y1 is None:  # the bubble vapour, from the γ and P_sat above
         x, Tb, shape = _as_points(x1, T)
         Pb = np.broadcast_to(P, shape).ravel().astype(float)
-        y1 = np.reshape(_bubble_vapour(system, x, Tb, Pb)[4], shape)
+        p1 = (x * np.broadcast_to(np.exp(ln_g1), shape).ravel()
+              * np.broadcast_to(ps1, shape).ravel())
+        p2 = ((1.0 - x) * np.broadcast_to(np.exp(ln_g2), shape).ravel()
+              * np.broadcast_to(ps2, shape).ravel())
+        y1 = np.reshape(bubble_vapour(system.vapour, p1, p2, Tb, Pb,
+                                      np.broadcast_to(ps1, shape).ravel(),
+                                      np.broadcast_to(ps2, shape).ravel())[2], shape)
     c1, c2 = ln_correction(system.vapour, y1, T, P, ps1, ps2)
     return K1 * np.exp(c1), K2 * np.exp(c2)
 
