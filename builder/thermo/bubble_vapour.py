@@ -20,7 +20,10 @@ depends on the vapour itself, so the bubble vapour solves
   substitution needs one step per factor ``|s|/2`` of error.  A larger ``s`` (a trial
   temperature far below a component's range makes ``B`` diverge) can give several
   roots; those points keep the substitution.
-* Any other vapour model: successive substitution ``y ← p1 c1(y) / Σ p_i c_i(y)``.
+* Any other vapour model: successive substitution ``y ← p1 c1(y) / Σ p_i c_i(y)``,
+  accelerated by a secant step on ``F(y) - y`` once two iterates exist (a strongly
+  composition-dependent vapour, such as a dimerising acid, contracts slowly: about 30
+  plain substitutions, 5-6 with the secant).
 
 In both, ``ln c_i`` is capped at ±50 (a trial temperature far outside the virial's
 range makes ``B``, and with it the correction, diverge); the Newton path leaves the
@@ -113,12 +116,15 @@ def bubble_vapour(vapour: VapourModel, p1: FloatArray, p2: FloatArray, T_K: Floa
 def _substitution(vapour: VapourModel, p1: FloatArray, p2: FloatArray, T_K: FloatArray,
                   P_Pa: FloatArray, psat1_Pa: FloatArray, psat2_Pa: FloatArray
                   ) -> tuple[FloatArray, FloatArray, FloatArray, BoolArray]:
-    """:func:`bubble_vapour` by successive substitution (any vapour model)."""
+    """:func:`bubble_vapour` by successive substitution with secant steps (any vapour
+    model)."""
     with np.errstate(invalid="ignore", divide="ignore"):
         y = p1 / (p1 + p2)
     q1, q2 = p1, p2
     ok = np.zeros_like(y, dtype=bool)
     correction = correction_at(vapour, T_K, P_Pa, psat1_Pa, psat2_Pa)
+    y_prev: FloatArray | None = None
+    g_prev: FloatArray | None = None
     for _ in range(SUBSTITUTIONS):
         c1, c2 = correction(y)
         c1 = np.minimum(np.maximum(c1, -LN_C_CAP), LN_C_CAP)
@@ -126,8 +132,18 @@ def _substitution(vapour: VapourModel, p1: FloatArray, p2: FloatArray, T_K: Floa
         q1, q2 = p1 * np.exp(c1), p2 * np.exp(c2)
         with np.errstate(invalid="ignore", divide="ignore"):
             y_new = q1 / (q1 + q2)
-        ok = np.abs(y_new - y) <= Y_TOLERANCE
-        y = y_new
-        if (ok | ~np.isfinite(y)).all():  # a NaN vapour stays NaN
+        g = y_new - y
+        ok = np.abs(g) <= Y_TOLERANCE
+        if (ok | ~np.isfinite(y_new)).all():  # a NaN vapour stays NaN
+            y = y_new
             break
+        step = y_new
+        if y_prev is not None and g_prev is not None:
+            with np.errstate(divide="ignore", invalid="ignore"):
+                secant = y - g * (y - y_prev) / (g - g_prev)
+            # The secant where it is defined and stays in (0, 1); plain substitution else.
+            usable = np.isfinite(secant) & (secant > 0.0) & (secant < 1.0) & ~ok
+            step = np.where(usable, secant, y_new)
+        y_prev, g_prev = y, g
+        y = np.where(ok, y_new, step)
     return np.asarray(q1), np.asarray(q2), np.asarray(y), np.asarray(ok)

@@ -239,8 +239,11 @@ def _bubble_vapour(
 ) -> tuple[FloatArray, FloatArray, FloatArray, FloatArray, FloatArray, BoolArray]:
     """Partial pressures, ``ln γ``, the bubble vapour ``y1`` and its convergence at (T, P).
 
-    For a real vapour ``y`` is found by successive substitution
-    ``y_i ∝ x_i γ_i P_i^sat c_i(y)``; for an ideal gas it is explicit.
+    For a real vapour ``y`` is the fixed point of ``y = F(y)``, ``F1 = p1 c1(y) /
+    (p1 c1(y) + p2 c2(y))`` with ``p_i = x_i γ_i P_i^sat``, solved by
+    :func:`builder.thermo.bubble_vapour.bubble_vapour` (Newton for the virial
+    vapour, secant-accelerated substitution for others); for an ideal gas ``y`` is
+    explicit.
     """
     if system.ideal_vapour:
         p1, p2, ln_g1, ln_g2 = _partial_pressures(system, x1, T)
