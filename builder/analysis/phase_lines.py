@@ -58,15 +58,24 @@ def _s(x: FloatArray) -> FloatArray:
 
 
 def _newton(equations: Callable[[FloatArray, FloatArray], FloatArray], u0: FloatArray,
-            P: FloatArray, maxiter: int) -> tuple[FloatArray, BoolArray, FloatArray]:
+            P: FloatArray, maxiter: int, towards_end: int | None = None
+            ) -> tuple[FloatArray, BoolArray, FloatArray]:
     """Damped Newton on ``equations(u, P) = 0`` for every row of ``u`` (n, m) at once.
 
     Returns the solution, a convergence flag per row and the Jacobian at the solution.
+    ``towards_end``: the column of a log-odds unknown ``s`` whose equation 0 tends to a
+    limit at a pure end, ``F0(s) ≈ F0(∞) + c e^(-|s|)``.  A row that has moved a full
+    step further out beyond ``|s| > 12`` while ``F0`` changed by less than 1 % of itself
+    stops, unconverged: under that law a root further out needs
+    ``|ΔF0| = (e - 1) |c| e^(-|s|) > |F0|/50`` at each step, so there is none (the row
+    would march on to the end at one unit of ``s`` per step until ``maxiter``).
     """
     u = np.array(u0, dtype=float, copy=True)
     n, m = u.shape
     converged = np.zeros(n, dtype=bool)
     active = np.ones(n, dtype=bool)
+    f_before = np.full(n, np.nan)
+    s_before = np.full(n, np.nan)
     jac = np.full((n, m, m), np.nan)
     limit = _MAX_STEP[-m:]
     for _ in range(maxiter):
@@ -98,6 +107,13 @@ def _newton(equations: Callable[[FloatArray, FloatArray], FloatArray], u0: Float
         u[idx] = ua + delta
         tiny = np.all(np.abs(delta) <= _STEP_TOL * np.maximum(np.abs(ua), 1.0), axis=1)
         done = small | (solvable & tiny & (scale <= 1.0))
+        if towards_end is not None:
+            s_now, f_now = np.abs(ua[:, towards_end]), f[:, 0]
+            with np.errstate(invalid="ignore"):
+                outward = (s_now > 12.0) & (s_now >= np.abs(s_before[idx]) + 0.999)
+                flat = np.abs(f_now - f_before[idx]) < 0.01 * np.abs(f_now)
+            active[idx[outward & flat & ~done]] = False
+            f_before[idx], s_before[idx] = f_now, ua[:, towards_end]
         converged[idx[done]] = True
         active[idx[done | ~(finite & (solvable | small))]] = False
     return u, converged, jac
@@ -142,7 +158,7 @@ def azeotrope_points(system: eq.BinarySystem, P_Pa: ArrayLike, x1_guess: ArrayLi
             return np.stack([np.log(K1) - np.log(K2), np.log(x * K1 + (1.0 - x) * K2)],
                             axis=1)
 
-    u, ok, J = _newton(equations, np.stack([_s(x0), T0], axis=1), P, maxiter)
+    u, ok, J = _newton(equations, np.stack([_s(x0), T0], axis=1), P, maxiter, towards_end=0)
     # Slope of ln α along the bubble curve: dF1/ds - dF1/dT (dF2/ds / dF2/dT).
     with np.errstate(all="ignore"):
         slope = J[:, 0, 0] - J[:, 0, 1] * J[:, 1, 0] / J[:, 1, 1]
