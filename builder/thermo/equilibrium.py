@@ -42,10 +42,12 @@ from builder.thermo.solvers import (
     solve_bracketed,
     solve_newton,
 )
+from builder.thermo.units import GAS_CONSTANT_J_PER_MOL_K
 from builder.thermo.vapour import (
     IDEAL_GAS,
     IdealGas,
     VapourModel,
+    VirialVapour,
     ln_correction,
 )
 from builder.thermo.vapour_pressure import VapourPressure
@@ -234,6 +236,31 @@ def _correction(system: BinarySystem, y1: FloatArray, T: FloatArray, P: FloatArr
     return np.clip(c1, -50.0, 50.0), np.clip(c2, -50.0, 50.0)
 
 
+def _correction_at_T(system: BinarySystem, T: FloatArray
+                     ) -> Callable[[FloatArray, FloatArray], LnC]:
+    """:func:`_correction` at fixed ``T`` as a function of (y1, P): for the virial vapour the
+    second virial coefficients and saturation pressures, which depend on T alone, once."""
+    vapour = system.vapour
+    if not isinstance(vapour, VirialVapour):
+        return lambda y1, P: _correction(system, y1, T, P)
+    B11, B22, B12 = vapour.coefficients(T)
+    ps1, ps2 = system.psat1.pressure_Pa(T), system.psat2.pressure_Pa(T)
+    RT = GAS_CONSTANT_J_PER_MOL_K * T
+    V1 = vapour.component1.liquid_volume_m3_per_mol
+    V2 = vapour.component2.liquid_volume_m3_per_mol
+    delta = 2.0 * B12 - B11 - B22
+
+    def correction(y1: FloatArray, P: FloatArray) -> LnC:
+        scale = P / RT
+        # ln φ_i^sat + Poynting - ln φ_i, as ln_correction with virial.virial_ln_phi
+        c1 = (B11 * ps1 + V1 * (P - ps1)) / RT - scale * (B11 + (1.0 - y1) ** 2 * delta)
+        c2 = (B22 * ps2 + V2 * (P - ps2)) / RT - scale * (B22 + y1**2 * delta)
+        return (np.minimum(np.maximum(c1, -50.0), 50.0),
+                np.minimum(np.maximum(c2, -50.0), 50.0))
+
+    return correction
+
+
 def _bubble_vapour(
     system: BinarySystem, x1: FloatArray, T: FloatArray, P: FloatArray
 ) -> tuple[FloatArray, FloatArray, FloatArray, FloatArray, FloatArray, BoolArray]:
@@ -284,8 +311,9 @@ def bubble_pressure(system: BinarySystem, x1: ArrayLike, T_K: ArrayLike) -> Equi
     done = np.ones_like(P, dtype=bool)
     if not system.ideal_vapour:
         base1, base2 = p1, p2
+        correction = _correction_at_T(system, T)
         for _ in range(_SUBSTITUTIONS):
-            c1, c2 = _correction(system, y, T, P)
+            c1, c2 = correction(y, P)
             p1, p2 = base1 * np.exp(c1), base2 * np.exp(c2)
             P_new = p1 + p2
             y_new = p1 / P_new
