@@ -309,6 +309,17 @@ def _minimum_reflux(y_star: Equilibrium, x_bottom: float, feed: float, x_top: fl
     return LV / (1.0 - LV), pinch, x_pinch
 
 
+def _likely_top_is_1(azeotropes: tuple[Azeotrope, ...], a: float, b: float) -> bool:
+    """Whether component 1 likely goes overhead in the stretch (a, b) between azeotropes:
+    ``α12 > 1`` below a minimum-boiling azeotrope and above a maximum-boiling one (its
+    sign changes there; the Gibbs-Konovalov rule of :mod:`.azeotropes`)."""
+    right = next((z for z in azeotropes if z.x1 == b), None)
+    if right is not None:
+        return right.kind == "minimum-boiling"
+    left = next((z for z in azeotropes if z.x1 == a), None)
+    return left is not None and left.kind != "minimum-boiling"
+
+
 def _stretches(azeotropes: tuple[Azeotrope, ...]) -> list[tuple[float, float]]:
     edges = [0.0, *sorted(a.x1 for a in azeotropes), 1.0]
     return list(itertools.pairwise(edges))
@@ -372,6 +383,7 @@ def quick_look(system: eq.BinarySystem, P_Pa: float, azeotropes: tuple[Azeotrope
         if missing:
             result = eq.bubble_temperature(system, x1[missing], P_Pa)
             y[missing] = np.where(result.converged, result.y1, np.nan)
+            table.update(zip(x1[missing].tolist(), y[missing].tolist(), strict=True))
         if three_phase is not None:
             inside = (x1 > three_phase.x1_a) & (x1 < three_phase.x1_b)
             y = np.where(inside, three_phase.y1, y)
@@ -393,6 +405,12 @@ def quick_look(system: eq.BinarySystem, P_Pa: float, azeotropes: tuple[Azeotrope
         feed = min(max(requested.feed_x1, a + 0.1 * width), b - 0.1 * width)
         split = Split(distillate_x1=float("nan"), bottoms_x1=float("nan"), feed_x1=feed)
         low, high = a + 0.05 * width, b - 0.05 * width
+        # The liquids asked for below, and the column's grids for the likely orientation
+        # (component 1 overhead below a minimum-boiling azeotrope, above a maximum-boiling
+        # one; checked below), in one call.
+        up = _likely_top_is_1(azeotropes, a, b)
+        likely = quick_look_compositions(Split(high if up else low, low if up else high, feed))
+        y1_of_x1(likely)
     # Which end of the stretch goes overhead: where the vapour is richer in it.  The vapours
     # at the split's ends, in either orientation, are solved in the same call.
     mid = 0.5 * (low + high)
