@@ -88,8 +88,9 @@ def _ln_alpha(system: eq.BinarySystem, result: eq.EquilibriumResult) -> FloatArr
 
 def _roots(system: eq.BinarySystem, lo: FloatArray, hi: FloatArray, f_lo: FloatArray,
            f_hi: FloatArray, T_lo: FloatArray, T_hi: FloatArray, P_Pa: float | None,
-           residual: Function) -> tuple[FloatArray, NDArray[np.bool_]]:
-    """The root of ``ln α12`` in each bracket ``[lo, hi]``.
+           residual: Function) -> tuple[FloatArray, NDArray[np.bool_], FloatArray]:
+    """The root of ``ln α12`` in each bracket ``[lo, hi]``, and its temperature where the
+    solve gave it (NaN elsewhere).
 
     On an isobar the azeotrope's own equations (:func:`.phase_lines.azeotrope_points`)
     are solved from the secant estimate, all brackets at once; a root that does not
@@ -97,6 +98,7 @@ def _roots(system: eq.BinarySystem, lo: FloatArray, hi: FloatArray, f_lo: FloatA
     is explicit), is found by the bracketed search along bubble points.
     """
     root = np.full(lo.size, np.nan)
+    T = np.full(lo.size, np.nan)
     converged = np.zeros(lo.size, dtype=bool)
     if P_Pa is not None:
         weight = f_lo / (f_lo - f_hi)
@@ -104,12 +106,13 @@ def _roots(system: eq.BinarySystem, lo: FloatArray, hi: FloatArray, f_lo: FloatA
                                   T_lo + weight * (T_hi - T_lo))
         converged = points.converged & (points.x1 >= lo) & (points.x1 <= hi)
         root = np.where(converged, points.x1, np.nan)
+        T = np.where(converged, points.T_K, np.nan)
     rest = np.flatnonzero(~converged)
     if rest.size:
         search = solve_bracketed(residual, lo[rest], hi[rest], xtol=1e-13, ftol=1e-14)
         root[rest] = search.root
         converged[rest] = search.converged
-    return root, converged
+    return root, converged, T
 
 
 def find_azeotropes(system: eq.BinarySystem, *, P_Pa: float | None = None,
@@ -176,17 +179,25 @@ def find_azeotropes(system: eq.BinarySystem, *, P_Pa: float | None = None,
         def residual(u: FloatArray, mask: NDArray[np.bool_]) -> FloatArray:
             return _ln_alpha(system, solve(u))
 
-        root, converged = _roots(system, lo, hi, fa[change], fb[change],
-                                 result.T_K[idx[change]], result.T_K[idx[change + 1]],
-                                 P_Pa, residual)
-        at = solve(root)
+        root, converged, T_root = _roots(system, lo, hi, fa[change], fb[change],
+                                         result.T_K[idx[change]], result.T_K[idx[change + 1]],
+                                         P_Pa, residual)
+        # The azeotrope's own solve gave T (and P is the isobar's); the other roots'
+        # bubble points are solved.
+        T_at, P_at, ok_at = T_root.copy(), np.full(lo.size, np.nan), converged.copy()
+        if P_Pa is not None:
+            P_at[:] = P_Pa
+        other = np.flatnonzero(~np.isfinite(T_root))
+        if other.size:
+            at = solve(root[other])
+            T_at[other], P_at[other], ok_at[other] = at.T_K, at.P_Pa, at.converged
         for k in range(lo.size):
-            if not (converged[k] and at.converged[k]):
+            if not (converged[k] and ok_at[k]):
                 unresolved += 1
                 continue
             kind = (KIND_ISOBAR if isobar else KIND_ISOTHERM)[bool(falling[k])]
-            azeotropes.append(Azeotrope(x1=float(root[k]), T_K=float(at.T_K[k]),
-                                        P_Pa=float(at.P_Pa[k]), kind=kind))
+            azeotropes.append(Azeotrope(x1=float(root[k]), T_K=float(T_at[k]),
+                                        P_Pa=float(P_at[k]), kind=kind))
     for i in exact:
         before, after = f[max(i - 1, 0)], f[min(i + 1, len(f) - 1)]
         if before * after < 0:
