@@ -151,8 +151,10 @@ class EquilibriumResult:
         return np.exp(self.ln_phi2) if self.ln_phi2 is not None else np.ones_like(self.T_K)
 
     def k_values(self, system: BinarySystem) -> tuple[FloatArray, FloatArray]:
-        """``K_i = y_i/x_i`` evaluated from the model (finite at ``x_i = 0``)."""
-        return k_values(system, self.x1, self.T_K, self.P_Pa, self.y1)
+        """``K_i = y_i/x_i`` evaluated from the model (finite at ``x_i = 0``), with the
+        ``ln γ`` this result holds (for a γ–φ system: the same numbers, not evaluated again)."""
+        return k_values(system, self.x1, self.T_K, self.P_Pa, self.y1,
+                        ln_gamma=(self.ln_gamma1, self.ln_gamma2))
 
     def relative_volatility(self, system: BinarySystem) -> FloatArray:
         """``α12 = K1/K2`` (``γ1 P1sat / (γ2 P2sat)`` for an ideal gas)."""
@@ -162,9 +164,12 @@ class EquilibriumResult:
 
 def k_values(
     system: BinarySystem, x1: ArrayLike, T_K: ArrayLike, P_Pa: ArrayLike,
-    y1: ArrayLike | None = None,
+    y1: ArrayLike | None = None, *,
+    ln_gamma: tuple[FloatArray, FloatArray] | None = None,
 ) -> tuple[FloatArray, FloatArray]:
     """Equilibrium ratios ``K_i = γ_i P_i^sat c_i / P`` (``c_i = 1`` for an ideal gas).
+
+    ``ln_gamma``: the activity coefficients at (x1, T) when already evaluated (γ–φ only).
 
     ``c_i`` is the vapour correction of :func:`builder.thermo.vapour.ln_correction`
     at the vapour ``y1``; without ``y1`` the bubble-point vapour of ``x1`` at
@@ -183,7 +188,7 @@ def k_values(
         from builder.thermo import cubic_equilibrium
 
         return cubic_equilibrium.k_values(system.vapour, x1, T, P, y1)  # type: ignore[arg-type]
-    ln_g1, ln_g2 = system.activity.ln_gamma(x1, T)
+    ln_g1, ln_g2 = system.activity.ln_gamma(x1, T) if ln_gamma is None else ln_gamma
     ps1, ps2 = system.psat1.pressure_Pa(T), system.psat2.pressure_Pa(T)
     K1, K2 = np.exp(ln_g1) * ps1 / P, np.exp(ln_g2) * ps2 / P
     if system.ideal_vapour:
