@@ -3,9 +3,10 @@
 Reference: pairs/recorded-azeotropes.yaml: the azeotrope table of the CRC Handbook of
 Chemistry and Physics (the same systems in Horsley, Azeotropic Data III), values recalled
 from memory, except the water entries read in the 760 mmHg table of azeotropes of water of
-Lange's Handbook, 10th ed. (or CRC 44th ed.; each entry names its source); screening tolerance 3 K and 0.08 in mole fraction with
-the behaviour class right (common practice).  The committed deviation table
-docs/unifac-deviations.md must be the one the code computes now.
+Lange's Handbook, 10th ed. (or CRC 44th ed.; each entry names its source); screening
+tolerance 3 K and 0.08 in mole fraction with the behaviour class right (common practice).
+The committed deviation table docs/unifac-deviations.md must be the one the code computes
+now.
 """
 
 from __future__ import annotations
