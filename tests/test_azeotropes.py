@@ -2,7 +2,8 @@
 
 References named beside each test: the azeotrope table of the CRC Handbook of Chemistry and
 Physics and Horsley's Azeotropic Data as recorded in each pair file (values from memory,
-marked there); closed forms for model liquids (symmetric Margules: ln(x/(1-x)) = A(2x-1)
+marked there; the water pairs read in Lange's Handbook, 10th ed., say so there); closed
+forms for model liquids (symmetric Margules: ln(x/(1-x)) = A(2x-1)
 for the binodal, ln α = c + A(1 - 2x) for the azeotrope); a brute-force dense scan as an
 independent count of the roots; invariants by property-based tests.
 """
