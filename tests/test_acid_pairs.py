@@ -191,3 +191,28 @@ def test_second_opinion_of_an_acid_pair_uses_its_vapour(catalogue: Catalogue,
     assert opinion.fitted_class == opinion.predicted_class == "zeotropic"
     pr = second_opinion(catalogue, atlas_results["propane--n-butane"], 101325.0)
     assert pr.predicted is not None and pr.predicted.curve.vapour_model == "virial"
+
+
+@pytest.mark.parametrize("acid", [0, 1])
+def test_acid_with_inert_closed_form_matches_the_general_route(acid: int) -> None:
+    """Common practice (chemical theory, true species as an ideal gas): the closed forms
+    φ_acid = 2/(1 + [1 + 4κ(2 - y)y]^½) and φ_inert = 1 + κ z_M² against the general solve
+    of the true-species balance (dimer_monomer_fractions), away from infinite dilution
+    where the general route divides small numbers."""
+    from builder.thermo.association import dimer_monomer_fractions
+
+    A, B = [np.log10(2e-5) - 1.0, -np.inf], [400.0, 0.0]
+    if acid == 1:
+        A, B = A[::-1], B[::-1]
+    vapour = DimerisingVapour(A=(A[0], A[1]), B=(B[0], B[1]),
+                              liquid_volume_m3_per_mol=(5.7e-5, 1.8e-5))
+    y = np.linspace(0.01, 0.99, 25)
+    T, P = np.full(y.size, 380.0), np.full(y.size, 1.3e5)
+    fast1, fast2 = vapour.ln_phi(y, T, P)
+    k11, k22, k12 = vapour.constants(T)
+    a, b = dimer_monomer_fractions(y, P, k11, k22, k12)
+    np.testing.assert_allclose(fast1, np.log(a / y), rtol=0, atol=1e-12)
+    np.testing.assert_allclose(fast2, np.log(b / (1.0 - y)), rtol=0, atol=1e-12)
+    ends1, ends2 = vapour.ln_phi(np.array([0.0, 1.0]), T[:2], P[:2])
+    assert np.all(np.isfinite(ends1)) and np.all(np.isfinite(ends2))
+    assert (ends1 if acid == 0 else ends2)[acid] == 0.0  # φ_acid → 1 at infinite dilution
