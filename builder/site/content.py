@@ -11,7 +11,7 @@ from __future__ import annotations
 
 import json
 import re
-from collections.abc import Iterator, Mapping, Sequence
+from collections.abc import Callable, Iterator, Mapping, Sequence
 from dataclasses import dataclass, field
 from typing import Any
 
@@ -28,6 +28,7 @@ from builder.site.predicted import PredictedSelection
 from builder.site.predicted_figures import predicted_figure
 from builder.site.settings import SiteSettings
 from builder.site.text import UnsafeName
+from builder.site.withheld import WithheldPair
 
 __all__ = ["SiteContent", "generate"]
 
@@ -67,7 +68,8 @@ def generate(settings: SiteSettings, catalogue: Catalogue, atlas: Mapping[str, P
              pair_figs: Mapping[str, Sequence[Figure]] | None = None,
              comp_figs: Mapping[str, Figure] | None = None,
              opinions: Mapping[str, SecondOpinion] | None = None,
-             selection: PredictedSelection | None = None) -> tuple[AtlasView, SiteContent]:
+             selection: PredictedSelection | None = None,
+             withheld: Sequence[WithheldPair] = ()) -> tuple[AtlasView, SiteContent]:
     """Every source file of the site, from the computed atlas and its figures (nothing is
     written).  Figures not given are drawn here, in this process (the build draws them
     through its executor, see :mod:`.work`).
@@ -108,9 +110,22 @@ def generate(settings: SiteSettings, catalogue: Catalogue, atlas: Mapping[str, P
     content.add("atlas.json", atlas_json(view, catalogue, atlas, pair_data))
     display = Display(settings)
     pages = render_pages(view, pair_figs, comp_figs, {},
-                         partners=partner_rows(view, catalogue, atlas, selection.reason),
+                         partners=partner_rows(view, catalogue, atlas,
+                                               _reason(selection, withheld)),
                          opinions={pid: opinion_view(o, display) for pid, o in opinions.items()},
-                         predicted=predicted, selection=selection)
+                         predicted=predicted, selection=selection, withheld=withheld)
     for path, text in pages.items():
         content.add(path, text)
     return view, content
+
+
+def _reason(selection: PredictedSelection,
+            withheld: Sequence[WithheldPair]) -> Callable[[str, str], str]:
+    """Why a combination has no pair page: withheld in this build, or the selection's reason."""
+    by_components = {frozenset(c[0] for c in w.components): w for w in withheld}
+
+    def reason(c1: str, c2: str) -> str:
+        w = by_components.get(frozenset((c1, c2)))
+        return f"withheld in this build: {w.short}" if w else selection.reason(c1, c2)
+
+    return reason

@@ -30,6 +30,7 @@ from builder.site.opinion import OpinionView, fitted_events
 from builder.site.partners import NO_PAGE, PartnerRow, Partners
 from builder.site.predicted import PredictedSelection
 from builder.site.text import escape, fmt
+from builder.site.withheld import WithheldPair
 
 __all__ = ["environment", "page_url", "render_pages"]
 
@@ -75,13 +76,16 @@ def render_pages(view: AtlasView, figures: Mapping[str, Sequence[Figure]],
                  partners: Partners | None = None,
                  opinions: Mapping[str, OpinionView] | None = None,
                  predicted: Set[str] = frozenset(),
-                 selection: PredictedSelection | None = None) -> dict[str, str]:
+                 selection: PredictedSelection | None = None,
+                 withheld: Sequence[WithheldPair] = ()) -> dict[str, str]:
     """Every page: ``{site-relative .md path: Markdown text}``.
 
     ``partners`` (:func:`.partners.partner_rows`) adds each component's partner table
     and the behaviour matrix page; ``opinions`` the second opinion on fitted pair pages
     and in the index; ``predicted`` names the pairs whose pages rest on a prediction and
-    ``selection`` adds the page listing the combinations that cannot be predicted.
+    ``selection`` adds the page listing the combinations that cannot be predicted;
+    ``withheld`` (:mod:`.withheld`) the notice of each withheld fitted pair, listed in the
+    index.
     """
     opinions = opinions or {}
     env = environment()
@@ -92,7 +96,8 @@ def render_pages(view: AtlasView, figures: Mapping[str, Sequence[Figure]],
         pages[path] = env.get_template(template).render(
             site=view.settings, atlas=view, rel=_relative(path), here=path, **context)
 
-    render("index.md.j2", "index.md", opinions=opinions, predicted=predicted)
+    render("index.md.j2", "index.md", opinions=opinions, predicted=predicted,
+           withheld=withheld)
     render("components.md.j2", "components/index.md")
     render("methods.md.j2", "methods.md", **methods_context)
     render("catalogue.md.j2", "catalogue.md")
@@ -101,6 +106,8 @@ def render_pages(view: AtlasView, figures: Mapping[str, Sequence[Figure]],
                figures=_grouped(figures.get(pair.id, ())), op=opinions.get(pair.id),
                fitted_events=fitted_events(pair.trace_events),
                is_predicted=pair.id in predicted)
+    for w in withheld:
+        render("withheld.md.j2", w.url, w=w)
     for component in view.components:
         rows = (partners or {}).get(component.id, ())
         render("component.md.j2", component.url, c=component,
