@@ -56,7 +56,7 @@ from builder.site.assemble import (
 )
 from builder.site.cache import BuildCache, code_version, component_key, default_cache_dir, pair_key
 from builder.site.content import generate
-from builder.site.executor import Executor, LocalExecutor
+from builder.site.executor import Executor, LocalExecutor, default_workers
 from builder.site.figures import Figure
 from builder.site.predicted import select_predicted
 from builder.site.progress import Progress
@@ -221,6 +221,10 @@ def build_site(catalogue_dir: Path | str = DEFAULT_CATALOGUE, out_dir: Path | st
     own_executor = executor is None
     runner: Executor = executor if executor is not None else LocalExecutor(workers)
     report.executor = runner.name
+    # The site check parses in as many local processes as the build computes in (a
+    # cluster's workers cannot read the staging folder: there, ``workers`` or the default).
+    check_workers = (runner.workers if isinstance(runner, LocalExecutor)
+                     else workers or default_workers())
     try:
         t = start("load")
         settings = load_settings(settings_file)
@@ -341,7 +345,7 @@ def build_site(catalogue_dir: Path | str = DEFAULT_CATALOGUE, out_dir: Path | st
 
         t = start("verify")
         memo = cache.load_memo("verify") if use_cache else {}
-        check = verify_site(staging, memo)
+        check = verify_site(staging, memo, workers=check_workers)
         cache.save_memo("verify", memo)
         stage("verify", t)
         report.pairs, report.components = len(view.pairs), len(view.components)
