@@ -69,7 +69,8 @@ def generate(settings: SiteSettings, catalogue: Catalogue, atlas: Mapping[str, P
              comp_figs: Mapping[str, Figure] | None = None,
              opinions: Mapping[str, SecondOpinion] | None = None,
              selection: PredictedSelection | None = None,
-             withheld: Sequence[WithheldPair] = ()) -> tuple[AtlasView, SiteContent]:
+             withheld: Sequence[WithheldPair] = (),
+             pair_pages: Mapping[str, str] | None = None) -> tuple[AtlasView, SiteContent]:
     """Every source file of the site, from the computed atlas and its figures (nothing is
     written).  Figures not given are drawn here, in this process (the build draws them
     through its executor, see :mod:`.work`).
@@ -77,7 +78,10 @@ def generate(settings: SiteSettings, catalogue: Catalogue, atlas: Mapping[str, P
     ``opinions`` (:func:`builder.analysis.second_opinion.second_opinions`) adds the
     predictive model's second opinion to the fitted pairs' figures, pages and JSON;
     ``selection`` (:func:`.predicted.select_predicted`) says which pairs of ``atlas`` are
-    predictions and why the combinations without a page have none.
+    predictions and why the combinations without a page have none; ``withheld``
+    (:func:`.withheld.withheld_pairs`) the fitted pairs left out, each with a notice page;
+    ``pair_pages`` the pair pages the workers rendered (pair id -> Markdown,
+    :mod:`.pair_page`): the others are rendered here.
     """
     opinions = opinions or {}
     selection = selection or PredictedSelection()
@@ -113,7 +117,8 @@ def generate(settings: SiteSettings, catalogue: Catalogue, atlas: Mapping[str, P
                          partners=partner_rows(view, catalogue, atlas,
                                                _reason(selection, withheld)),
                          opinions={pid: opinion_view(o, display) for pid, o in opinions.items()},
-                         predicted=predicted, selection=selection, withheld=withheld)
+                         predicted=predicted, selection=selection, withheld=withheld,
+                         rendered=pair_pages)
     for path, text in pages.items():
         content.add(path, text)
     return view, content
