@@ -292,7 +292,7 @@ def build_site(catalogue_dir: Path | str = DEFAULT_CATALOGUE, out_dir: Path | st
     opinions = {pid: pair_work[pid].opinion for pid in computed
                 if pair_work[pid].opinion is not None}
     pair_figs: dict[str, tuple[Figure, ...]] = {pid: pair_work[pid].figures for pid in computed}
-    pair_pages = {pid: pair_work[pid].page for pid in computed}
+    pair_files = {pid: pair_work[pid].files for pid in computed}
     comp_figs = {cid: component_work[cid].figure for cid in component_ids}
     del pair_work, component_work
     failed = failed_sets(catalogue, atlas)
@@ -317,9 +317,9 @@ def build_site(catalogue_dir: Path | str = DEFAULT_CATALOGUE, out_dir: Path | st
     t = start("render")
     view, content = generate(settings, catalogue, atlas, pair_figs, comp_figs,
                              opinions=opinions, selection=selection, withheld=withheld,
-                             pair_pages=pair_pages)
+                             pair_files=pair_files)
     methods = content.files.get("methods.md", b"").decode("utf-8")
-    del atlas, pair_figs, comp_figs, pair_pages
+    del atlas, pair_figs, comp_figs, pair_files
     stage("render", t)
 
     t = start("assemble")

@@ -25,7 +25,7 @@ from builder.analysis.second_opinion import SecondOpinion, second_opinion
 from builder.catalogue.loader import Catalogue
 from builder.site.cache import code_version
 from builder.site.figures import Figure, component_figure, pair_figures
-from builder.site.pair_page import pair_markdown
+from builder.site.pair_files import PairFiles, pair_files
 from builder.site.predicted_figures import predicted_figure
 from builder.site.settings import SiteSettings
 
@@ -50,7 +50,7 @@ class PairOutput:
     figures: tuple[Figure, ...]
     opinion: SecondOpinion | None  # the predictive model beside a fitted pair
     code_version: str
-    page: str = ""  # the pair page's Markdown (:mod:`.pair_page`)
+    files: PairFiles  # its page, downloads and view (:mod:`.pair_files`)
 
 
 @dataclass(frozen=True)
@@ -112,8 +112,8 @@ def component_task(catalogue: Catalogue, component_id: str,
 
 def run_pair(task: PairTask) -> PairOutput | PairFailure:
     """Compute one pair (and, for a fitted pair, the predictive model's second opinion when
-    the settings ask for it), draw its figures and render its page; a :class:`PairFailure`
-    when that raises.
+    the settings ask for it), draw its figures and make its page and downloads; a
+    :class:`PairFailure` when that raises.
 
     Any :class:`Exception` is caught -- one numerical corner case among thousands of
     combinations must not stop the atlas -- and reported with the pair; an interrupt
@@ -135,9 +135,9 @@ def _compute_and_draw(task: PairTask) -> PairOutput:
         opinion = (second_opinion(task.catalogue, results, task.settings.summary_pressure_Pa)
                    if task.settings.second_opinion else None)
         figures = pair_figures(results, task.settings, opinion)
-    page = pair_markdown(task.catalogue, results, figures, opinion, task.settings,
-                         task.predicted)
-    return PairOutput(results, figures, opinion, code_version(), page)
+    files = pair_files(task.catalogue, results, figures, opinion, task.settings,
+                       task.predicted)
+    return PairOutput(results, figures, opinion, code_version(), files)
 
 
 def run_component(task: ComponentTask) -> ComponentOutput:

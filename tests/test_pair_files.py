@@ -1,5 +1,5 @@
-"""A pair page rendered in the worker (``builder.site.pair_page``) is the page the main
-process renders from the whole atlas, byte for byte.
+"""A pair's page, downloads and view made in the worker (``builder.site.pair_files``) are
+those the main process makes from the whole atlas, byte for byte.
 
 Reference: the project's own contract (the same catalogue gives the same site whichever
 way it is built; the pair page reads nothing of other pairs).  Covered: fitted pairs with
@@ -20,8 +20,9 @@ from builder.analysis.second_opinion import second_opinion
 from builder.catalogue.loader import Catalogue
 from builder.site import TEMPLATES, cache
 from builder.site.content import generate
+from builder.site.context import build_views
 from builder.site.figures import pair_figures
-from builder.site.pair_page import pair_markdown
+from builder.site.pair_files import pair_files
 from builder.site.predicted import select_predicted
 from builder.site.predicted_figures import predicted_figure
 from builder.site.settings import load_settings
@@ -31,7 +32,7 @@ from tests.conftest import ShippedResults
 FITTED = ("acetone--chloroform", "ethanol--water", "water--1-butanol")
 
 
-def test_worker_page_equals_the_main_process_page(catalogue: Catalogue,
+def test_worker_files_equal_the_main_process_files(catalogue: Catalogue,
                                                   shipped_results: ShippedResults) -> None:
     settings = load_settings()
     assert settings.second_opinion  # the shipped settings: fitted pages carry it
@@ -51,16 +52,29 @@ def test_worker_page_equals_the_main_process_page(catalogue: Catalogue,
                      else pair_figures(atlas[pid], settings, opinions[pid]))
                for pid in atlas}
     selection = replace(selection, records={pid: selection.records[pid] for pid in predicted})
-    _view, content = generate(settings, part, atlas, figures, opinions=opinions,
-                              selection=selection)
+    view, content = generate(settings, part, atlas, figures, opinions=opinions,
+                             selection=selection)
+    made = {}
     for pid in sorted(atlas):
         task = pair_task(work, pid, settings, predicted=pid in predicted)
-        page = pair_markdown(task.catalogue, atlas[pid], figures[pid], opinions.get(pid),
-                             settings, pid in predicted)
+        made[pid] = pair_files(task.catalogue, atlas[pid], figures[pid], opinions.get(pid),
+                               settings, pid in predicted)
+        page = made[pid].page
         assert page == content.files[f"pairs/{pid}.md"].decode("utf-8"), pid
+        assert len(made[pid].downloads) == 2 * len(atlas[pid].conditions) + 1
+        for path, data in made[pid].downloads:
+            assert data == content.files[path], path
         assert ("Prediction, not fitted data" in page) == (pid in predicted)
         if pid not in predicted:
             assert "Second opinion" in page
+    # The views the workers built, given this atlas's component views, are the main ones
+    # (compared as text: a missing value is NaN, and NaN != NaN).
+    assert repr(build_views(settings, part, atlas, {pid: m.view for pid, m in made.items()})
+                ) == repr(view)
+    # And the whole site content is the same (atlas.json from the workers' entries).
+    _again, from_workers = generate(settings, part, atlas, figures, opinions=opinions,
+                                    selection=selection, pair_files=made)
+    assert from_workers.files == content.files
 
 
 @pytest.mark.parametrize("name", ["pair.md.j2", "_macros.j2"])
