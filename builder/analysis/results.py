@@ -151,6 +151,30 @@ def _no_two_phase(kind: str, value: float, curve: curves.Curve) -> ConditionResu
                            three_phase=None, quicklook=None)
 
 
+#: UNIFAC subgroups that make a component a carboxylic acid (both variants' spelling).
+_ACID_SUBGROUPS = frozenset({"COOH", "HCOOH"})
+
+
+def _is_acid(component: Component) -> bool:
+    groups = component.groups
+    return groups is not None and any(
+        name in _ACID_SUBGROUPS for variant in ("unifac", "dortmund")
+        for name in (groups.of(variant) or {}))
+
+
+def acid_vapour_warnings(c1: Component, c2: Component, vapour_model: str) -> tuple[str, ...]:
+    """A warning for each carboxylic acid of a pair whose vapour is not treated as
+    dimerising (no dimerisation constants in the catalogue): near its boiling point an
+    acid's vapour is mostly dimers, so an ideal-gas or virial vapour misjudges its
+    volatility and can show an azeotrope that does not exist (common practice)."""
+    if vapour_model in ("associating", "peng-robinson"):
+        return ()
+    return tuple(f"{c.name} is a carboxylic acid, whose vapour dimerises; the catalogue has no "
+                 f"dimerisation constants for it, so this page takes its vapour as "
+                 f"{vapour_model}: its volatility and any azeotrope with it are uncertain"
+                 for c in (c1, c2) if _is_acid(c))
+
+
 def compute_pair(catalogue: Catalogue, pair: PairRecord) -> PairResults:
     """Compute every published condition of ``pair``, the azeotrope's movement with
     pressure and the reference checks."""
@@ -162,11 +186,12 @@ def compute_pair(catalogue: Catalogue, pair: PairRecord) -> PairResults:
     if reference is not None and reference.azeotropes:
         trace = trace_azeotrope(system_for(pair, catalogue), pair.model,
                                 reference.azeotropes[0], (pair.T_min_K, pair.T_max_K))
+    c1, c2 = catalogue.components[pair.component1], catalogue.components[pair.component2]
+    first = (isobars + isotherms)[0] if isobars or isotherms else None
+    warnings = acid_vapour_warnings(c1, c2, first.curve.vapour_model) if first else ()
     computed = PairResults(
-        pair=pair,
-        component1=catalogue.components[pair.component1],
-        component2=catalogue.components[pair.component2],
-        isobars=isobars, isotherms=isotherms, warnings=(), trace=trace, checks=(),
+        pair=pair, component1=c1, component2=c2, isobars=isobars, isotherms=isotherms,
+        warnings=warnings, trace=trace, checks=(),
     )
     return replace(computed, checks=check_pair(computed))
 

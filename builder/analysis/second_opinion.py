@@ -30,13 +30,13 @@ import numpy as np
 from numpy.typing import NDArray
 
 from builder.analysis import curves
+from builder.analysis.point import system_for
 from builder.analysis.results import ConditionResult, PairResults, compute_condition
 from builder.analysis.trace import AzeotropeTrace, analyse, trace_azeotrope
 from builder.analysis.volatility import volatility
 from builder.catalogue.loader import Catalogue
 from builder.catalogue.predictive import CannotPredict, default_prediction
 from builder.catalogue.records import PairRecord
-from builder.thermo import equilibrium as eq
 
 __all__ = ["CLASS_WORDS", "SecondOpinion", "behaviour_class", "predicted_record",
            "second_opinion", "second_opinions"]
@@ -133,21 +133,28 @@ def predicted_record(pair: PairRecord, catalogue: Catalogue) -> PairRecord:
 
     The prediction's temperature range is that of both vapour-pressure
     correlations (the group parameters carry their own temperature dependence).
-    Raises :class:`~builder.catalogue.predictive.CannotPredict` with the reason.
+    The vapour is the pair's own (virial, or the dimerising vapour of an acid
+    pair, whose fitted set was regressed with it), so that the two opinions
+    differ by their liquid models alone; a φ–φ pair (Peng–Robinson for both
+    phases) gets the default γ–φ vapour instead, since the prediction is a
+    liquid model.  Raises :class:`~builder.catalogue.predictive.CannotPredict` with the reason.
     """
     c1, c2 = catalogue.components[pair.component1], catalogue.components[pair.component2]
     model = default_prediction(c1, c2)
     lo = max(c1.vapour_pressure.T_min_K, c2.vapour_pressure.T_min_K)
     hi = min(c1.vapour_pressure.T_max_K, c2.vapour_pressure.T_max_K)
+    vapour = None if pair.vapour is not None and pair.vapour.model == "peng-robinson" \
+        else pair.vapour
     return replace(pair, model=model, model_kind=model.variant, quality="predicted",
                    published_parameters=dict(model.parameters_text()), T_min_K=lo,
-                   T_max_K=max(hi, lo), recorded=None, split_x1=pair.split_x1)
+                   T_max_K=max(hi, lo), recorded=None, split_x1=pair.split_x1,
+                   vapour=vapour)
 
 
 def _isobar(catalogue: Catalogue, record: PairRecord, P_Pa: float) -> ConditionResult:
     """One isobar of ``record``: curve, phases, azeotropes and volatility (no quick look)."""
     c1, c2 = catalogue.components[record.component1], catalogue.components[record.component2]
-    system = eq.BinarySystem(c1.vapour_pressure, c2.vapour_pressure, record.model)
+    system = system_for(record, catalogue)
     curve = curves.isobar(system, P_Pa)
     phases = analyse(system, record.model, True, P_Pa, curve)
     drawable = curve.converged & ~phases.inside_gap
@@ -255,8 +262,7 @@ def second_opinion(catalogue: Catalogue, results: PairResults,
     same = [a for a in predicted.azeotropes if not a.heterogeneous] or list(
         predicted.azeotropes)
     if same:
-        c1, c2 = catalogue.components[pair.component1], catalogue.components[pair.component2]
-        system = eq.BinarySystem(c1.vapour_pressure, c2.vapour_pressure, record.model)
+        system = system_for(record, catalogue)
         # The same pressures as the fitted trace, and no temperature limit of its own.
         trace = trace_azeotrope(system, record.model, same[0], (0.0, float("inf")),
                                 points=TRACE_POINTS)

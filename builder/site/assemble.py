@@ -1,7 +1,8 @@
 """The last stage: write the generated sources and let mkdocs assemble the HTML site.
 
-This is the only module that knows about mkdocs (1.6, with the Material
-theme); another static-site engine would replace this module alone.  It
+This and its plugin :mod:`~.raw_html` are the only modules that know about
+mkdocs (1.6, with the Material theme); another static-site engine would
+replace these alone.  It
 writes the :class:`~.content.SiteContent` and the static assets of
 ``site_templates/assets`` into a source folder, derives ``mkdocs.yml`` from
 ``site_templates/mkdocs.base.yml`` and runs the mkdocs build in-process.
@@ -165,6 +166,8 @@ def assemble(content: SiteContent, settings: SiteSettings, out_dir: Path, source
     from mkdocs.commands.build import build
     from mkdocs.config import load_config
 
+    from builder.site.raw_html import RawHtmlPassThrough
+
     collector = _Collect()
     build_logger = logging.getLogger("mkdocs.commands.build")
     build_logger.addFilter(_not_the_dirty_warning)
@@ -175,6 +178,7 @@ def assemble(content: SiteContent, settings: SiteSettings, out_dir: Path, source
     logger.propagate = False  # reported by the caller, once
     try:
         config = load_config(config_file=str(config_file), strict=strict)
+        config.plugins["atlas-raw-html"] = RawHtmlPassThrough()
         build(config, dirty=incremental)
     except mkdocs_exceptions.MkDocsException as error:
         details = "; ".join(collector.messages)

@@ -161,6 +161,8 @@ class DimerisingVapour:
     def ln_phi(self, y1: ArrayLike, T_K: ArrayLike, P_Pa: ArrayLike
                ) -> tuple[FloatArray, FloatArray]:
         y = np.asarray(y1, dtype=float)
+        if not (np.isfinite(self.A[0]) and np.isfinite(self.A[1])):
+            return self._ln_phi_with_inert(y, T_K, P_Pa)
         k11, k22, k12 = self.constants(T_K)
         a, b = dimer_monomer_fractions(y, P_Pa, k11, k22, k12)
         with np.errstate(divide="ignore", invalid="ignore"):
@@ -172,6 +174,25 @@ class DimerisingVapour:
             phi1 = np.where(y > 0.0, a / y, a_dilute / eps)
             phi2 = np.where(y < 1.0, b / (1.0 - y), b_dilute / eps)
         return np.log(phi1), np.log(phi2)
+
+    def _ln_phi_with_inert(self, y1: FloatArray, T_K: ArrayLike, P_Pa: ArrayLike
+                           ) -> tuple[FloatArray, FloatArray]:
+        """One component dimerises, the other does not: closed forms.
+
+        With the acid as component 1 and ``κ = K11 P``: ``φ1 = z_M1 / y1 =
+        2 / (1 + [1 + 4 κ (2 - y1) y1]^½)`` (from :func:`_acid_with_inert`) and,
+        since ``1 - y1 = z_M2 / (1 + z_D11)``, ``φ2 = z_M2 / y2 = 1 + κ z_M1²``;
+        both finite at infinite dilution (``φ1 → 1`` as ``y1 → 0``).  The same
+        values as the general route of :meth:`ln_phi` (the test suite compares).
+        """
+        acid = 0 if np.isfinite(self.A[0]) else 1
+        y = np.clip(y1 if acid == 0 else 1.0 - y1, 0.0, 1.0)
+        kp = 10.0 ** (self.A[acid] + self.B[acid] / np.asarray(T_K, dtype=float)) \
+            * np.asarray(P_Pa, dtype=float)
+        phi_acid = 2.0 / (1.0 + np.sqrt(1.0 + 4.0 * kp * (2.0 - y) * y))
+        a = phi_acid * y
+        ln_acid, ln_inert = np.log(phi_acid), np.log1p(kp * a * a)
+        return (ln_acid, ln_inert) if acid == 0 else (ln_inert, ln_acid)
 
     def ln_liquid_reference(self, T_K: ArrayLike, P_Pa: ArrayLike, psat1_Pa: ArrayLike,
                             psat2_Pa: ArrayLike) -> tuple[FloatArray, FloatArray]:

@@ -302,18 +302,73 @@ def dew_pressure(system: BinarySystem, y1: FloatArray, T_K: FloatArray) -> Cubic
     return _solve("dew_pressure", system, y1, T_K)
 
 
-def _flash(mix: CubicMixture, T: float, P: float, x0: float, y0: float
-           ) -> tuple[float, float, bool]:
-    """The coexisting ``x1, y1`` at fixed (T, P) from a nearby guess; False if none or trivial."""
-    T_arr, P_arr = np.array([T]), np.array([P])
+def _flash(mix: CubicMixture, T: FloatArray, P: FloatArray, x0: FloatArray, y0: FloatArray
+           ) -> tuple[FloatArray, FloatArray, BoolArray]:
+    """The coexisting ``x1, y1`` at fixed (T, P) from nearby guesses, element by element;
+    False where there is none or only the trivial one."""
 
     def residual(u: FloatArray, v: FloatArray, mask: BoolArray) -> tuple[FloatArray, FloatArray]:
-        return _k_residual(mix, u, v, T_arr, P_arr)
+        return _k_residual(mix, u, v, T[mask], P[mask])
 
-    x, y, ok = _newton(residual, np.array([x0]), np.array([y0]), (0.0, 1.0), (0.0, 1.0), 0.05)
-    good = bool(ok[0]) and not bool(_trivial(mix, x, y, T_arr, P_arr)[0]) and (
-        0.0 < float(x[0]) < 1.0 or abs(float(x[0]) - float(y[0])) > TRIVIAL_GAP)
-    return float(x[0]), float(y[0]), good
+    x, y, ok = _newton(residual, x0, y0, (0.0, 1.0), (0.0, 1.0), 0.05)
+    good = ok & ~_trivial(mix, x, y, T, P) & (
+        ((0.0 < x) & (x < 1.0)) | (np.abs(x - y) > TRIVIAL_GAP))
+    return x, y, good
+
+
+def _march(mix: CubicMixture, fixed: str, value: FloatArray, start_x1: FloatArray,
+           start_y1: FloatArray, start_free: FloatArray, direction: float, gap: float
+           ) -> list[CriticalPoint | None]:
+    """:func:`critical_point` for several starts at once (one fixed value each): every
+    march takes its own steps, and the flashes of one round are one vectorised solve."""
+    n = value.size
+    lo, x_lo, y_lo = start_free.astype(float).copy(), start_x1.copy(), start_y1.copy()
+    paths: list[list[tuple[float, float, float]]] = [
+        [(float(lo[i]), float(x_lo[i]), float(y_lo[i]))] for i in range(n)]
+    step = 0.002 * np.abs(start_free)
+    smallest = 1e-10 * np.abs(start_free)
+    going = np.ones(n, dtype=bool)
+    failed = np.zeros(n, dtype=bool)
+    for _ in range(400):
+        going &= (np.abs(x_lo - y_lo) >= gap) & (step >= smallest)
+        idx = np.flatnonzero(going)
+        if idx.size == 0:
+            break
+        trial = lo[idx] + direction * step[idx]
+        x0, y0 = x_lo[idx].copy(), y_lo[idx].copy()
+        for k, i in enumerate(idx):  # linear extrapolation along the path as the guess
+            if len(paths[i]) >= 2:
+                f_prev, x_prev, y_prev = paths[i][-2]
+                slope = (trial[k] - lo[i]) / (lo[i] - f_prev)
+                x0[k] = min(max(x_lo[i] + (x_lo[i] - x_prev) * slope, 0.0), 1.0)
+                y0[k] = min(max(y_lo[i] + (y_lo[i] - y_prev) * slope, 0.0), 1.0)
+        T, P = ((value[idx], trial) if fixed == "T" else (trial, value[idx]))
+        x, y, ok = _flash(mix, T, P, x0, y0)
+        retry = np.flatnonzero(~ok & ((x0 != x_lo[idx]) | (y0 != y_lo[idx])))
+        if retry.size:
+            x[retry], y[retry], ok[retry] = _flash(mix, T[retry], P[retry], x_lo[idx[retry]],
+                                                   y_lo[idx[retry]])
+        for k, i in enumerate(idx):
+            if ok[k]:
+                lo[i], x_lo[i], y_lo[i] = trial[k], x[k], y[k]
+                paths[i].append((float(lo[i]), float(x[k]), float(y[k])))
+                step[i] *= 1.5
+                if abs(lo[i] - start_free[i]) > abs(start_free[i]):
+                    failed[i] = True
+                    going[i] = False
+            else:
+                # Past the critical point, or too far for the guess: shorten the step.
+                step[i] /= 4.0
+    out: list[CriticalPoint | None] = []
+    for j in range(n):
+        if failed[j]:
+            out.append(None)
+            continue
+        free = float(lo[j] + 0.5 * direction * step[j])
+        T_c, P_c = (float(value[j]), free) if fixed == "T" else (free, float(value[j]))
+        out.append(CriticalPoint(x1=float(0.5 * (x_lo[j] + y_lo[j])), T_K=T_c, P_Pa=P_c,
+                                 path=tuple(paths[j])))
+    return out
 
 
 def critical_point(system: BinarySystem, fixed: str, value: float, start_x1: float,
@@ -329,43 +384,9 @@ def critical_point(system: BinarySystem, fixed: str, value: float, start_x1: flo
     until the phases differ by less than ``gap``.  None if no end is found
     within a factor of two.
     """
-    mix = _mixture(system)
-
-    def at(free: float, x0: float, y0: float) -> tuple[float, float, bool]:
-        T, P = (value, free) if fixed == "T" else (free, value)
-        return _flash(mix, T, P, x0, y0)
-
-    lo, x_lo, y_lo = start_free, start_x1, start_y1
-    path = [(lo, x_lo, y_lo)]
-    step = 0.002 * abs(start_free)
-    smallest = 1e-10 * abs(start_free)
-    for _ in range(400):
-        if abs(x_lo - y_lo) < gap or step < smallest:
-            break
-        trial = lo + direction * step
-        x0, y0 = x_lo, y_lo
-        if len(path) >= 2:  # linear extrapolation along the path as the guess
-            f_prev, x_prev, y_prev = path[-2]
-            slope = (trial - lo) / (lo - f_prev)
-            x0 = min(max(x_lo + (x_lo - x_prev) * slope, 0.0), 1.0)
-            y0 = min(max(y_lo + (y_lo - y_prev) * slope, 0.0), 1.0)
-        x, y, ok = at(trial, x0, y0)
-        if not ok and (x0, y0) != (x_lo, y_lo):
-            x, y, ok = at(trial, x_lo, y_lo)
-        if ok:
-            lo, x_lo, y_lo = trial, x, y
-            path.append((lo, x, y))
-            step *= 1.5
-            if abs(lo - start_free) > abs(start_free):
-                return None
-        else:
-            # Past the critical point, or too far for the guess: shorten the step.
-            step /= 4.0
-    hi = lo + direction * step
-    free = 0.5 * (lo + hi)
-    x_c = 0.5 * (x_lo + y_lo)
-    T_c, P_c = (value, free) if fixed == "T" else (free, value)
-    return CriticalPoint(x1=x_c, T_K=T_c, P_Pa=P_c, path=tuple(path))
+    return _march(_mixture(system), fixed, np.array([value], dtype=float),
+                  np.array([start_x1], dtype=float), np.array([start_y1], dtype=float),
+                  np.array([start_free], dtype=float), direction, gap)[0]
 
 
 @lru_cache(maxsize=32)
@@ -381,6 +402,7 @@ def cricondenbar(system: BinarySystem, points: int = 8) -> float:
     T_low, T_high = sorted(mix.Tc_K)
     light = 0 if mix.Tc_K[0] < mix.Tc_K[1] else 1
     grid = np.linspace(0.0, 1.0, 21)
+    starts = []
     for T in np.linspace(T_low, T_high, points + 2)[1:-1]:
         z = grid if light == 0 else 1.0 - grid
         result = bubble_pressure(system, z, np.full(z.size, T))
@@ -388,8 +410,11 @@ def cricondenbar(system: BinarySystem, points: int = 8) -> float:
         if ok.size == 0:
             continue
         top = ok[np.argmax(result.P_Pa[ok])]
-        point = critical_point(system, "T", float(T), float(result.x1[top]),
-                               float(result.y1[top]), float(result.P_Pa[top]), +1.0)
-        if point is not None:
-            best = max(best, point.P_Pa)
+        starts.append((float(T), float(result.x1[top]), float(result.y1[top]),
+                       float(result.P_Pa[top])))
+    if starts:
+        T_s, x_s, y_s, P_s = (np.array(column) for column in zip(*starts, strict=True))
+        for point in _march(mix, "T", T_s, x_s, y_s, P_s, +1.0, 2e-4):
+            if point is not None:
+                best = max(best, point.P_Pa)
     return best

@@ -222,8 +222,12 @@ def _bubble_vapour(
 ) -> tuple[FloatArray, FloatArray, FloatArray, FloatArray, FloatArray, BoolArray]:
     """Partial pressures, ``ln γ``, the bubble vapour ``y1`` and its convergence at (T, P).
 
-    For a real vapour ``y`` is found by successive substitution
-    ``y_i ∝ x_i γ_i P_i^sat c_i(y)``; for an ideal gas it is explicit.
+    For a real vapour ``y`` is the fixed point of ``y = F(y)``, ``F1 = p1 c1(y) /
+    (p1 c1(y) + p2 c2(y))`` with ``p_i = x_i γ_i P_i^sat``: successive
+    substitution, accelerated by a secant step on ``F(y) - y`` once two iterates
+    exist (a strongly composition-dependent vapour, such as a dimerising acid,
+    contracts slowly: about 30 plain substitutions, 5-6 with the secant); for
+    an ideal gas ``y`` is explicit.
     """
     p1, p2, ln_g1, ln_g2 = _partial_pressures(system, x1, T)
     y = p1 / (p1 + p2)
@@ -234,15 +238,26 @@ def _bubble_vapour(
     ok = np.zeros_like(y, dtype=bool)
     correction = correction_at(system.vapour, T, P, system.psat1.pressure_Pa(T),
                                system.psat2.pressure_Pa(T))
+    y_prev = g_prev = None
     for _ in range(_SUBSTITUTIONS):
         c1, c2 = correction(y)
         c1, c2 = np.clip(c1, -50.0, 50.0), np.clip(c2, -50.0, 50.0)
         p1, p2 = base1 * np.exp(c1), base2 * np.exp(c2)
         y_new = p1 / (p1 + p2)
-        ok = np.abs(y_new - y) <= _SUBSTITUTION_TOL
-        y = y_new
+        g = y_new - y
+        ok = np.abs(g) <= _SUBSTITUTION_TOL
         if ok.all():
+            y = y_new
             break
+        step = y_new
+        if y_prev is not None and g_prev is not None:
+            with np.errstate(divide="ignore", invalid="ignore"):
+                secant = y - g * (y - y_prev) / (g - g_prev)
+            # The secant where it is defined and stays in (0, 1); plain substitution else.
+            usable = np.isfinite(secant) & (secant > 0.0) & (secant < 1.0) & ~ok
+            step = np.where(usable, secant, y_new)
+        y_prev, g_prev = y, g
+        y = np.where(ok, y_new, step)
     return p1, p2, ln_g1, ln_g2, y, ok
 
 

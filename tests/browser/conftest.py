@@ -1,7 +1,9 @@
 """Browser tests: Playwright driving Debian's Chromium (/usr/bin/chromium), never a download.
 
-The site under test is built once per session from the shipped catalogue, or taken from
-$ATLAS_SITE when CI has just built it with ``atlas build --strict``.  Outside CI the tests
+The site under test is taken from $ATLAS_SITE when CI has just built the full atlas with
+``atlas build --strict``; otherwise it is built once per session from the shipped
+catalogue with ``tests/data/browser-site.yaml`` (predicted pages for fifteen solvents, not
+every combination, to keep a local run short).  Outside CI the tests
 are skipped when Chromium or Playwright is missing; in CI (CI=true) that is a failure.
 """
 
@@ -22,6 +24,7 @@ from tests.conftest import cache_sharing_work
 pytest.importorskip("material", reason="the site extra is not installed: pip install -e '.[site]'")
 
 CHROMIUM = Path("/usr/bin/chromium")
+BROWSER_SETTINGS = Path(__file__).resolve().parent.parent / "data" / "browser-site.yaml"
 
 
 def _need(condition: bool, reason: str) -> None:
@@ -40,7 +43,8 @@ def site(tmp_path_factory: pytest.TempPathFactory, shared_work: Path) -> Path:
         return path
     root = tmp_path_factory.mktemp("browser")
     out = root / "site"
-    build_site(out_dir=out, strict=True, cache_dir=cache_sharing_work(shared_work, root))
+    build_site(out_dir=out, strict=True, settings_file=BROWSER_SETTINGS,
+               cache_dir=cache_sharing_work(shared_work, root))
     return out
 
 
