@@ -97,9 +97,10 @@ def _single_azeotrope(catalogue: Catalogue, pair_id: str) -> tuple[float, float,
 
 
 def test_formic_acid_water_maximum_boiling_azeotrope(catalogue: Catalogue) -> None:
-    """CRC Handbook (95th ed.), Azeotropic Data for Binary Mixtures: formic acid-water,
-    maximum-boiling, 107.3 C, 77.5 mass % formic acid (x1 = 0.574) (from memory; the same
-    system is in Horsley's tables); within 1.5 K and 0.04 in mole fraction."""
+    """Lange's Handbook, 10th ed., table of azeotropes of water at 760 mmHg (read in a web
+    transcription, as pairs/binaries/formic-acid--water.yaml says): formic acid-water,
+    maximum-boiling, 107.3 C, 77.5 weight % formic acid (x1 = 0.574); within 1.5 K and
+    0.04 in mole fraction."""
     T_K, x1, kind = _single_azeotrope(catalogue, "formic-acid--water")
     assert kind == "maximum-boiling"
     c = catalogue.components
@@ -110,9 +111,10 @@ def test_formic_acid_water_maximum_boiling_azeotrope(catalogue: Catalogue) -> No
 
 
 def test_propionic_acid_water_minimum_boiling_azeotrope(catalogue: Catalogue) -> None:
-    """CRC Handbook (95th ed.): water-propionic acid, minimum-boiling, 99.98 C, 17.7 mass %
-    acid (x1 = 0.050) (from memory): the published DECHEMA set with the associating vapour
-    within 1.5 K and 0.04 in mole fraction."""
+    """Lange's Handbook, 10th ed., table of azeotropes of water (read in a web transcription):
+    water-propionic acid, minimum-boiling, 99.98 C, 17.7 weight % acid (x1 = 0.050): the
+    published DECHEMA set with the associating vapour within 1.5 K and 0.04 in mole
+    fraction."""
     T_K, x1, kind = _single_azeotrope(catalogue, "propionic-acid--water")
     assert kind == "minimum-boiling"
     assert T_K == pytest.approx(99.98 + 273.15, abs=1.5)

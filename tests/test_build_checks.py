@@ -29,8 +29,8 @@ def failing_catalogue(tmp_path_factory: pytest.TempPathFactory) -> Path:
         shutil.copy(DEFAULT_CATALOGUE / "binaries" / f"{pid}.yaml", root / "binaries")
     path = root / "binaries" / "ethanol--water.yaml"
     text = path.read_text(encoding="utf-8")
-    assert "x1: 0.894" in text
-    path.write_text(text.replace("x1: 0.894", "x1: 0.500"), encoding="utf-8")
+    assert "x1: 0.893" in text
+    path.write_text(text.replace("x1: 0.893", "x1: 0.500"), encoding="utf-8")
     return root
 
 

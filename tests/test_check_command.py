@@ -1,6 +1,6 @@
 """``atlas check``: clean on the shipped catalogue, failing with file/entry/check on a bad set.
 
-References: the recorded azeotrope tables in the pair files (CRC Handbook, from memory) and
+References: the recorded azeotrope tables in the pair files (each names its table) and
 CoolProp / the chemicals package, as run by ``atlas check`` itself.
 """
 

@@ -66,3 +66,15 @@ def test_catalogue_files_name_no_program_outside_notes(folder: str) -> None:
         text = re.sub(r"(?m)^\s*notes?: .*$", "", text)
         text = text.replace("schema.json", "")  # the schema comment on line 1
         assert not PROGRAM_NAMES.search(text), (path.name, PROGRAM_NAMES.search(text))
+
+
+def test_citations_have_one_full_stop_between_parts(catalogue: Catalogue) -> None:
+    """An edition ("10th ed.") or an author list ending in an initial is followed by one full
+    stop, not two (common practice in reference lists)."""
+    from builder.catalogue.records import Reference
+
+    book = Reference(id="x", authors="Lange, N. A.", title="Handbook of Chemistry", year=1961,
+                     kind="handbook", edition="10th", publisher="McGraw-Hill")
+    assert book.citation() == ("Lange, N. A. Handbook of Chemistry. 10th ed. McGraw-Hill. "
+                               "1961.")
+    assert not [r.id for r in catalogue.references.values() if ".." in r.citation()]

@@ -68,7 +68,10 @@ class Reference:
         parts.append(str(self.year))
         if self.doi:
             parts.append(f"doi:{self.doi}")
-        return ". ".join(parts) + "."
+        text = ""
+        for part in parts:  # a part that ends in a full stop ("2nd ed.") gets no second one
+            text += part if not text else (" " if text.endswith(".") else ". ") + part
+        return text if text.endswith(".") else text + "."
 
 
 @dataclass(frozen=True)
