@@ -48,7 +48,13 @@ def test_build_withholds_a_set_that_fails_its_checks(failing_catalogue: Path, ga
     assert list(report.withheld) == ["ethanol--water"]
     assert "azeotrope at 101.325 kPa" in report.withheld["ethanol--water"][0]
     assert "ethanol--water.yaml: entry 'ethanol--water'" in report.withheld["ethanol--water"][0]
-    assert not (tmp_path / "site" / "pairs" / "ethanol--water.html").exists()
+    # Its page is a notice that says why, with no numbers; the index lists it.
+    notice = (tmp_path / "site" / "pairs" / "ethanol--water.html").read_text(encoding="utf-8")
+    assert "Withheld from this build: this parameter set fails 1 of its reference checks" in (
+        notice)
+    assert 'class="atlas-summary' not in notice and 'class="atlas-figure' not in notice
+    index = (tmp_path / "site" / "index.html").read_text(encoding="utf-8")
+    assert 'href="pairs/ethanol--water.html"' in index and "fails 1 reference check" in index
     assert (tmp_path / "site" / "pairs" / "acetone--chloroform.html").is_file()
     assert "Not published (failed checks" in report.summary()
 

@@ -170,7 +170,8 @@ def test_failed_verification_leaves_the_site(published: tuple[Path, Path, dict[s
     catalogue, out, before = published
     edit_notes(catalogue, "acetone--chloroform", "A new note that is never published.")
     monkeypatch.setattr(build_module, "verify_site",
-                        lambda root, memo=None: SiteCheck(problems=["x.html: planted problem"]))
+                        lambda root, memo=None, workers=1: SiteCheck(
+                            problems=["x.html: planted problem"]))
     with pytest.raises(BuildFailure, match="planted problem"):
         build_site(catalogue, out, workers=1, quiet_progress=True)
     assert snapshot(out) == before

@@ -12,6 +12,7 @@ import dataclasses
 import io
 import json
 import re
+import shutil
 from pathlib import Path
 
 import pytest
@@ -156,6 +157,29 @@ def test_verify_finds_external_and_missing_resources(tmp_path: Path) -> None:
     assert "cdn.example/x.js" in text and "cdn.example/x.css" in text
     assert "figure.svg" in text and "missing.png" in text and "javascript:" in text
     assert check.external_links == 1
+
+
+def test_verify_in_worker_processes_finds_the_same(small_site: Path, tmp_path: Path) -> None:
+    """Parsing spread over processes: the same findings in the same order, the same memo."""
+    site = tmp_path / "site"
+    shutil.copytree(small_site, site)
+    page = site / "pairs" / "ethanol--water.html"
+    page.write_text(page.read_text(encoding="utf-8").replace(
+        "</body>", '<script src="https://cdn.example/x.js"></script>'
+                   '<a href="nowhere.html">x</a></body>'), encoding="utf-8")
+    figure = next(site.rglob("*.svg"))
+    figure.write_text(figure.read_text(encoding="utf-8").replace(
+        "<svg ", '<svg onload="alert(1)" ', 1), encoding="utf-8")
+    (site / "components" / "extra.css").write_text("body{background:url(gone.png)}",
+                                                     encoding="utf-8")
+    one_memo: dict = {}
+    many_memo: dict = {}
+    one = verify_site(site, one_memo, workers=1)
+    many = verify_site(site, many_memo, workers=2)
+    assert len(one.problems) == 4, one.problems
+    assert many == one and many_memo == one_memo
+    # From the memo alone (nothing parsed again): still the same.
+    assert verify_site(site, many_memo, workers=2) == one
 
 
 def test_output_folder_guard(tmp_path: Path) -> None:

@@ -21,6 +21,12 @@ what they depend on, and the previous assembly, so that a rebuild after an
 edit recomputes one pair and re-assembles the pages that changed; its output
 is byte-identical to a cold build (``use_cache=False``).
 
+A pair whose computation raises does not stop the build (:class:`~.work.PairFailure`,
+never cached, so the next build retries it).  A failed *predicted* pair is listed
+with the reason on the page of combinations without a page; a failed *fitted* pair
+is withheld like a set that fails its checks: a notice page says why, the index lists
+it, the build warns, and a ``strict`` build fails (see :func:`build_site`).
+
 Each stage's start is announced (``  stage: <name>`` in :data:`STAGE_MARKER`
 form) on the progress channel, and its duration when it ends.
 """
@@ -36,6 +42,7 @@ from pathlib import Path
 from typing import Any
 
 from builder.analysis.catalogue_checks import failed_sets
+from builder.analysis.predicted import Unpredictable
 from builder.analysis.results import PairResults
 from builder.catalogue.loader import DEFAULT_CATALOGUE, load_catalogue
 from builder.errors import AtlasError
@@ -49,7 +56,7 @@ from builder.site.assemble import (
 )
 from builder.site.cache import BuildCache, code_version, component_key, default_cache_dir, pair_key
 from builder.site.content import generate
-from builder.site.executor import Executor, LocalExecutor
+from builder.site.executor import Executor, LocalExecutor, default_workers
 from builder.site.figures import Figure
 from builder.site.predicted import select_predicted
 from builder.site.progress import Progress
@@ -57,7 +64,8 @@ from builder.site.publish import publish, recover, staging_folder
 from builder.site.search import search_documents, write_search_index
 from builder.site.settings import SiteSettings, load_settings
 from builder.site.verify import verify_site
-from builder.site.work import component_task, pair_task, run_component, run_pair
+from builder.site.withheld import withheld_pairs
+from builder.site.work import PairFailure, component_task, pair_task, run_component, run_pair
 
 __all__ = ["DEFAULT_OUTPUT", "STAGE_MARKER", "BuildFailure", "BuildReport", "build_site"]
 
@@ -89,13 +97,24 @@ class BuildReport:
     withheld: dict[str, list[str]] = field(default_factory=dict)
     #: Pairs published with a banner despite failed checks (``allow_failed_checks``).
     published_failing: dict[str, list[str]] = field(default_factory=dict)
+    #: Pairs whose computation failed in this build (fitted ones are also in ``withheld``).
+    failed: dict[str, PairFailure] = field(default_factory=dict)
 
     def summary(self) -> str:
         stages = ", ".join(f"{k} {v:.1f} s" for k, v in self.timings_s.items())
         notes = ""
-        if self.withheld:
+        checks = sorted(pid for pid in self.withheld if pid not in self.failed)
+        if checks:
             notes += (f"Not published (failed checks; see 'atlas check'): "
-                      f"{', '.join(sorted(self.withheld))}.\n")
+                      f"{', '.join(checks)}.\n")
+        fitted = sorted(pid for pid, f in self.failed.items() if not f.predicted)
+        if fitted:
+            notes += f"Not published (the computation failed): {', '.join(fitted)}.\n"
+        failed = ""
+        if self.failed:
+            failed = (f" {len(self.failed)} pair computation(s) failed: "
+                      f"{len(self.failed) - len(fitted)} predicted (listed as combinations "
+                      f"without a page), {len(fitted)} fitted (withheld).")
         if self.published_failing:
             notes += (f"Published with a failed-checks banner: "
                       f"{', '.join(sorted(self.published_failing))}.\n")
@@ -103,7 +122,7 @@ class BuildReport:
         return notes + (f"Built the atlas: {self.pairs} pairs, {self.components} components, "
                 f"{self.pages} pages, {self.files} files, {self.size_bytes / 1e6:.1f} MB in "
                 f"{sum(self.timings_s.values()):.1f} s ({stages}); {self.computed} worked on "
-                f"({self.executor}), {self.cached} from the cache.\n"
+                f"({self.executor}), {self.cached} from the cache.{failed}\n"
                 f"Open {index.as_uri()} in a browser (no server needed), or run "
                 "'atlas serve' for a local preview.")
 
@@ -150,7 +169,8 @@ def _run_work(tasks: list[tuple[str, str, Any]], fn: Callable[[Any], Any], label
                                    f"({output.code_version[:12]}, this is "
                                    f"{code_version()[:12]}): install the same version on every "
                                    "worker")
-            cache.put(key, output)
+            if not isinstance(output, PairFailure):  # a failure is retried by the next build
+                cache.put(key, output)
             outputs[ident] = output
             progress.step()
     return outputs
@@ -169,6 +189,17 @@ def build_site(catalogue_dir: Path | str = DEFAULT_CATALOGUE, out_dir: Path | st
     ``executor`` runs the per-pair work (default: :class:`LocalExecutor` with
     ``workers`` processes); ``use_cache=False`` is a cold build (the cache is
     still refreshed for the next one).
+
+    A pair whose computation fails is reported, not fatal.  A failed fitted pair is
+    withheld (a notice page, the index, a warning); under ``strict`` it fails the build,
+    because a fitted pair is curated content a contributor submitted and can fix, and a
+    strict build (CI, a release) must not publish an atlas that silently lacks it.  A
+    failed predicted pair is listed with the reason among the combinations without a
+    page and counted in the summary, and does not fail a strict build: a prediction is
+    the model's guess for a combination nobody catalogued, its failure says what the
+    model cannot do for that combination -- like a combination that cannot be predicted
+    at all, which a strict build accepts too -- and one such corner case among thousands
+    must not hold back the release of every fitted pair.
     """
     out = Path(out_dir).resolve()
     only = tuple(only)
@@ -190,6 +221,10 @@ def build_site(catalogue_dir: Path | str = DEFAULT_CATALOGUE, out_dir: Path | st
     own_executor = executor is None
     runner: Executor = executor if executor is not None else LocalExecutor(workers)
     report.executor = runner.name
+    # The site check parses in as many local processes as the build computes in (a
+    # cluster's workers cannot read the staging folder: there, ``workers`` or the default).
+    check_workers = (runner.workers if isinstance(runner, LocalExecutor)
+                     else workers or default_workers())
     try:
         t = start("load")
         settings = load_settings(settings_file)
@@ -224,30 +259,67 @@ def build_site(catalogue_dir: Path | str = DEFAULT_CATALOGUE, out_dir: Path | st
         if own_executor:
             runner.close()
     report.computed, report.cached = cache.misses, cache.hits
-    atlas: dict[str, PairResults] = {pid: pair_work[pid].results for pid in pair_ids}
-    opinions = {pid: out.opinion for pid, out in pair_work.items() if out.opinion is not None}
-    pair_figs: dict[str, tuple[Figure, ...]] = {pid: pair_work[pid].figures for pid in pair_ids}
+    report.failed = {pid: out for pid, out in pair_work.items() if isinstance(out, PairFailure)}
+    fitted_failed = {pid: f for pid, f in report.failed.items() if not f.predicted}
+    failure_warnings = [f"{pid}: {f.reason}" + (f" (at {f.where})" if f.where else "")
+                        + "; the pair is withheld from this build"
+                        for pid, f in fitted_failed.items()]
+    for pid, f in report.failed.items():
+        if f.predicted:
+            say(f"  note: predicted pair {pid}: {f.reason}; listed among the combinations "
+                "without a page")
+    if strict and fitted_failed:
+        raise BuildFailure(
+            f"the computation of {len(fitted_failed)} fitted pair(s) failed, and a strict "
+            "build publishes every fitted pair:\n"
+            + "\n".join(f"  - {catalogue.pairs[pid].file}: entry {pid!r}: {f.reason}"
+                        + (f" (at {f.where})" if f.where else "")
+                        for pid, f in fitted_failed.items())
+            + "\nCorrect the entry, or build without --strict to publish the atlas without "
+            "it (the pair's page then says it is withheld)")
+    if report.failed:  # a failed prediction: among the combinations without a page
+        selection = replace(
+            selection,
+            records={pid: r for pid, r in selection.records.items() if pid not in report.failed},
+            unpredictable=tuple(sorted(
+                selection.unpredictable + tuple(
+                    Unpredictable(selection.records[pid].component1,
+                                  selection.records[pid].component2, (f.reason,))
+                    for pid, f in report.failed.items() if f.predicted),
+                key=lambda u: (u.component1, u.component2))))
+    computed = [pid for pid in pair_ids if pid not in report.failed]
+    atlas: dict[str, PairResults] = {pid: pair_work[pid].results for pid in computed}
+    opinions = {pid: pair_work[pid].opinion for pid in computed
+                if pair_work[pid].opinion is not None}
+    pair_figs: dict[str, tuple[Figure, ...]] = {pid: pair_work[pid].figures for pid in computed}
+    pair_files = {pid: pair_work[pid].files for pid in computed}
     comp_figs = {cid: component_work[cid].figure for cid in component_ids}
     del pair_work, component_work
     failed = failed_sets(catalogue, atlas)
-    if failed and not allow_failed_checks:
-        # The same validation as `atlas check`: a set that fails its checks is withheld.
-        atlas = {pid: r for pid, r in atlas.items() if pid not in failed}
-        pair_figs = {pid: f for pid, f in pair_figs.items() if pid not in failed}
+    if failed and allow_failed_checks:
+        report.published_failing, failed = failed, {}
+    # The same validation as `atlas check`: a set that fails its checks is withheld, and
+    # so is a fitted pair whose computation failed.
+    report.withheld = {**failed, **{pid: [f.reason] for pid, f in fitted_failed.items()}}
+    withheld = withheld_pairs(catalogue,
+                              {pid: lines for pid, lines in failed.items()
+                               if pid in catalogue.pairs},
+                              {pid: f.reason for pid, f in fitted_failed.items()})
+    if report.withheld:
+        atlas = {pid: r for pid, r in atlas.items() if pid not in report.withheld}
+        pair_figs = {pid: f for pid, f in pair_figs.items() if pid not in report.withheld}
         catalogue = replace(catalogue, pairs={pid: p for pid, p in catalogue.pairs.items()
-                                              if pid not in failed})
-        report.withheld = failed
-    elif failed:
-        report.published_failing = failed
+                                              if pid not in report.withheld})
     if not atlas:
         raise BuildFailure("no pair passes its checks; nothing to publish:\n" + "\n".join(
-            f"  - {line}" for lines in failed.values() for line in lines))
+            f"  - {line}" for lines in report.withheld.values() for line in lines))
 
     t = start("render")
     view, content = generate(settings, catalogue, atlas, pair_figs, comp_figs,
-                             opinions=opinions, selection=selection)
+                             opinions=opinions, selection=selection, withheld=withheld,
+                             pair_files=pair_files)
     methods = content.files.get("methods.md", b"").decode("utf-8")
-    del atlas, pair_figs, comp_figs
+    del atlas, pair_figs, comp_figs, pair_files
     stage("render", t)
 
     t = start("assemble")
@@ -275,13 +347,13 @@ def build_site(catalogue_dir: Path | str = DEFAULT_CATALOGUE, out_dir: Path | st
 
         t = start("verify")
         memo = cache.load_memo("verify") if use_cache else {}
-        check = verify_site(staging, memo)
+        check = verify_site(staging, memo, workers=check_workers)
         cache.save_memo("verify", memo)
         stage("verify", t)
         report.pairs, report.components = len(view.pairs), len(view.components)
         report.pages, report.files = check.html_pages, check.files
         report.size_bytes = check.size_bytes
-        report.warnings = assembled.warnings
+        report.warnings = failure_warnings + assembled.warnings
         report.external_links = check.external_links
         if check.problems:
             shown = "\n".join(f"  - {p}" for p in check.problems[:50])

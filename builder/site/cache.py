@@ -1,12 +1,13 @@
 """The build cache: per-pair and per-component work, keyed by a hash of all it depends on.
 
-A pair's computed results and figures depend on its catalogue file, its two
-components' files, the reference files those cite, the site settings and the
-code that computes and draws them.  :func:`pair_key` hashes exactly those
-(SHA-256 of the file bytes, the settings and :func:`code_version`); a stored
-entry is used only when the key matches, so an edited file, another setting
-or another version of the builder never reuses stale work.  A component's
-figure is keyed the same way by its own file.
+A pair's computed results, figures and page depend on its catalogue file, its two
+components' files, the reference files those cite, the site settings, the
+templates of the pair page and the code that computes, draws and renders them.
+:func:`pair_key` hashes exactly those (SHA-256 of the file bytes, the settings
+and :func:`code_version`); a stored entry is used only when the key matches,
+so an edited file or template, another setting or another version of the
+builder never reuses stale work.  A component's figure is keyed the same way
+by its own file.
 
 Entries are pickles under ``<cache>/work/<k[:2]>/<key>.pickle``, written to a
 temporary name and renamed, so a killed build leaves no half-written entry.
@@ -27,12 +28,15 @@ from pathlib import Path
 from typing import Any
 
 from builder.catalogue.loader import Catalogue
+from builder.site import TEMPLATES
 from builder.site.settings import SiteSettings
 
 __all__ = ["BuildCache", "code_version", "component_key", "default_cache_dir", "pair_key"]
 
 #: The builder package (every ``.py`` under it is part of the code version).
 _PACKAGE = Path(__file__).resolve().parent.parent
+#: The templates of a pair page (rendered with the pair's work, :mod:`.pair_page`).
+PAIR_PAGE_TEMPLATES = ("pair.md.j2", "_macros.j2")
 #: ``ref: some-id`` in a catalogue file: the references a file cites.
 _REF = re.compile(r"\bref:\s*['\"]?([a-z0-9]+(?:-[a-z0-9]+)*)")
 
@@ -95,6 +99,9 @@ def pair_key(catalogue: Catalogue, pair_id: str, settings: SiteSettings) -> str:
     # The group tables: predicted pairs and the second opinion of fitted ones rest on them.
     files += [(f"groups/{path.name}", _file_bytes(path))
               for path in sorted((root / "groups").glob("*.yaml"))]
+    # The templates of the pair page, which the worker renders (.pair_page).
+    files += [(f"templates/{name}", _file_bytes(TEMPLATES / "pages" / name))
+              for name in PAIR_PAGE_TEMPLATES]
     return _hash([("kind", b"pair"), ("code", code_version().encode()),
                   ("settings", _settings_text(settings).encode()),
                   *_with_references(catalogue, files)])

@@ -9,9 +9,8 @@ every part is a safe slug, so no catalogue text can choose where a file goes.
 
 from __future__ import annotations
 
-import json
 import re
-from collections.abc import Iterator, Mapping, Sequence
+from collections.abc import Callable, Iterator, Mapping, Sequence
 from dataclasses import dataclass, field
 from typing import Any
 
@@ -19,15 +18,17 @@ from builder.analysis.results import PairResults
 from builder.analysis.second_opinion import SecondOpinion
 from builder.catalogue.loader import Catalogue
 from builder.site.context import AtlasView, Display, build_views
-from builder.site.data import atlas_json, condition_csvs, pair_json, plain
+from builder.site.data import atlas_json
 from builder.site.figures import Figure, component_figure, pair_figures
-from builder.site.opinion import opinion_json, opinion_view
+from builder.site.opinion import opinion_view
 from builder.site.pages import render_pages
+from builder.site.pair_files import PairFiles, pair_downloads
 from builder.site.partners import is_predicted, partner_rows
 from builder.site.predicted import PredictedSelection
 from builder.site.predicted_figures import predicted_figure
 from builder.site.settings import SiteSettings
 from builder.site.text import UnsafeName
+from builder.site.withheld import WithheldPair
 
 __all__ = ["SiteContent", "generate"]
 
@@ -67,7 +68,10 @@ def generate(settings: SiteSettings, catalogue: Catalogue, atlas: Mapping[str, P
              pair_figs: Mapping[str, Sequence[Figure]] | None = None,
              comp_figs: Mapping[str, Figure] | None = None,
              opinions: Mapping[str, SecondOpinion] | None = None,
-             selection: PredictedSelection | None = None) -> tuple[AtlasView, SiteContent]:
+             selection: PredictedSelection | None = None,
+             withheld: Sequence[WithheldPair] = (),
+             pair_files: Mapping[str, PairFiles] | None = None
+             ) -> tuple[AtlasView, SiteContent]:
     """Every source file of the site, from the computed atlas and its figures (nothing is
     written).  Figures not given are drawn here, in this process (the build draws them
     through its executor, see :mod:`.work`).
@@ -75,11 +79,16 @@ def generate(settings: SiteSettings, catalogue: Catalogue, atlas: Mapping[str, P
     ``opinions`` (:func:`builder.analysis.second_opinion.second_opinions`) adds the
     predictive model's second opinion to the fitted pairs' figures, pages and JSON;
     ``selection`` (:func:`.predicted.select_predicted`) says which pairs of ``atlas`` are
-    predictions and why the combinations without a page have none.
+    predictions and why the combinations without a page have none; ``withheld``
+    (:func:`.withheld.withheld_pairs`) the fitted pairs left out, each with a notice page;
+    ``pair_files`` the pages, downloads and views the workers made of the pairs
+    (:mod:`.pair_files`): those of the other pairs are made here.
     """
     opinions = opinions or {}
     selection = selection or PredictedSelection()
-    view = build_views(settings, catalogue, dict(atlas))
+    pair_files = pair_files or {}
+    view = build_views(settings, catalogue, dict(atlas),
+                       {pid: files.view for pid, files in pair_files.items()})
     predicted = frozenset(p.id for p in view.pairs if is_predicted(p, catalogue))
     if pair_figs is None:
         pair_figs = {pid: (predicted_figure(results, settings) if pid in predicted
@@ -91,16 +100,12 @@ def generate(settings: SiteSettings, catalogue: Catalogue, atlas: Mapping[str, P
     content = SiteContent()
     pair_data: dict[str, dict[str, Any]] = {}
     for pv in view.pairs:
-        results = atlas[pv.id]
-        for result, cv in zip(results.conditions, pv.conditions, strict=True):
-            curve, table = condition_csvs(results, result)
-            content.add(cv.curve_csv, curve)
-            content.add(cv.table_csv, table)
-        pair_data[pv.id] = pair_json(results, pv, settings)
-        if pv.id in opinions:
-            pair_data[pv.id]["second_opinion"] = opinion_json(opinions[pv.id])
-        content.add(pv.json_path, json.dumps(plain(pair_data[pv.id]), indent=1, ensure_ascii=False,
-                                             allow_nan=False) + "\n")
+        made = pair_files.get(pv.id)
+        downloads, pair_data[pv.id] = ((made.downloads, made.data) if made is not None else
+                                       pair_downloads(atlas[pv.id], pv, opinions.get(pv.id),
+                                                      settings))
+        for path, data in downloads:
+            content.add(path, data)
         for fig in pair_figs[pv.id]:
             content.add(fig.path, fig.svg)
     for cid in sorted(comp_figs):
@@ -108,9 +113,23 @@ def generate(settings: SiteSettings, catalogue: Catalogue, atlas: Mapping[str, P
     content.add("atlas.json", atlas_json(view, catalogue, atlas, pair_data))
     display = Display(settings)
     pages = render_pages(view, pair_figs, comp_figs, {},
-                         partners=partner_rows(view, catalogue, atlas, selection.reason),
+                         partners=partner_rows(view, catalogue, atlas,
+                                               _reason(selection, withheld)),
                          opinions={pid: opinion_view(o, display) for pid, o in opinions.items()},
-                         predicted=predicted, selection=selection)
+                         predicted=predicted, selection=selection, withheld=withheld,
+                         rendered={pid: files.page for pid, files in pair_files.items()})
     for path, text in pages.items():
         content.add(path, text)
     return view, content
+
+
+def _reason(selection: PredictedSelection,
+            withheld: Sequence[WithheldPair]) -> Callable[[str, str], str]:
+    """Why a combination has no pair page: withheld in this build, or the selection's reason."""
+    by_components = {frozenset(c[0] for c in w.components): w for w in withheld}
+
+    def reason(c1: str, c2: str) -> str:
+        w = by_components.get(frozenset((c1, c2)))
+        return f"withheld in this build: {w.short}" if w else selection.reason(c1, c2)
+
+    return reason

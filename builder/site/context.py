@@ -13,7 +13,8 @@ package.
 
 from __future__ import annotations
 
-from dataclasses import dataclass, field
+from collections.abc import Mapping
+from dataclasses import dataclass, field, replace
 
 from builder.analysis.results import PairResults
 from builder.catalogue.loader import Catalogue
@@ -56,14 +57,23 @@ class AtlasView:
 
 
 def build_views(settings: SiteSettings, catalogue: Catalogue,
-                atlas: dict[str, PairResults]) -> AtlasView:
-    """Every page's data, from the catalogue and the computed results."""
+                atlas: dict[str, PairResults],
+                made: Mapping[str, PairView] | None = None) -> AtlasView:
+    """Every page's data, from the catalogue and the computed results.
+
+    ``made`` holds pair views the workers built (:mod:`.pair_files`): each gets this
+    atlas's views of its two components (which list all their pairs); the other pair
+    views are built here.
+    """
+    made = made or {}
     display = Display(settings)
     pairs = [atlas[pid].pair for pid in sorted(atlas)]
     components = {cid: component_view(catalogue, catalogue.components[cid], display, pairs)
                   for cid in sorted(catalogue.components)}
-    pair_views = tuple(pair_view(catalogue, atlas[pid], components, display, settings)
-                       for pid in sorted(atlas))
+    pair_views = tuple(
+        replace(made[pid], c1=components[made[pid].c1.id], c2=components[made[pid].c2.id])
+        if pid in made else pair_view(catalogue, atlas[pid], components, display, settings)
+        for pid in sorted(atlas))
     cited = sorted(catalogue.references.items())
     return AtlasView(
         settings=settings, pairs=pair_views,

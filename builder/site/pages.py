@@ -30,8 +30,9 @@ from builder.site.opinion import OpinionView, fitted_events
 from builder.site.partners import NO_PAGE, PartnerRow, Partners
 from builder.site.predicted import PredictedSelection
 from builder.site.text import escape, fmt
+from builder.site.withheld import WithheldPair
 
-__all__ = ["environment", "page_url", "render_pages"]
+__all__ = ["environment", "page_url", "pair_page", "render_pages"]
 
 
 def page_url(path: str) -> str:
@@ -75,14 +76,20 @@ def render_pages(view: AtlasView, figures: Mapping[str, Sequence[Figure]],
                  partners: Partners | None = None,
                  opinions: Mapping[str, OpinionView] | None = None,
                  predicted: Set[str] = frozenset(),
-                 selection: PredictedSelection | None = None) -> dict[str, str]:
+                 selection: PredictedSelection | None = None,
+                 withheld: Sequence[WithheldPair] = (),
+                 rendered: Mapping[str, str] | None = None) -> dict[str, str]:
     """Every page: ``{site-relative .md path: Markdown text}``.
 
     ``partners`` (:func:`.partners.partner_rows`) adds each component's partner table
     and the behaviour matrix page; ``opinions`` the second opinion on fitted pair pages
     and in the index; ``predicted`` names the pairs whose pages rest on a prediction and
-    ``selection`` adds the page listing the combinations that cannot be predicted.
+    ``selection`` adds the page listing the combinations that cannot be predicted;
+    ``withheld`` (:mod:`.withheld`) the notice of each withheld fitted pair, listed in the
+    index.  ``rendered`` holds pair pages already rendered by the workers (pair id ->
+    Markdown, :mod:`.pair_page`); the other pair pages are rendered here.
     """
+    rendered = rendered or {}
     opinions = opinions or {}
     env = environment()
     at = Display(view.settings).P(view.settings.summary_pressure_Pa, 6)
@@ -92,15 +99,17 @@ def render_pages(view: AtlasView, figures: Mapping[str, Sequence[Figure]],
         pages[path] = env.get_template(template).render(
             site=view.settings, atlas=view, rel=_relative(path), here=path, **context)
 
-    render("index.md.j2", "index.md", opinions=opinions, predicted=predicted)
+    render("index.md.j2", "index.md", opinions=opinions, predicted=predicted,
+           withheld=withheld)
     render("components.md.j2", "components/index.md")
     render("methods.md.j2", "methods.md", **methods_context)
     render("catalogue.md.j2", "catalogue.md")
     for pair in view.pairs:
-        render("pair.md.j2", pair.url, p=pair, sheet=datasheet(pair),
-               figures=_grouped(figures.get(pair.id, ())), op=opinions.get(pair.id),
-               fitted_events=fitted_events(pair.trace_events),
-               is_predicted=pair.id in predicted)
+        pages[pair.url] = (rendered[pair.id] if pair.id in rendered else
+                           pair_page(env, pair, figures.get(pair.id, ()), opinions.get(pair.id),
+                                     pair.id in predicted, view.settings))
+    for w in withheld:
+        render("withheld.md.j2", w.url, w=w)
     for component in view.components:
         rows = (partners or {}).get(component.id, ())
         render("component.md.j2", component.url, c=component,
@@ -114,6 +123,15 @@ def render_pages(view: AtlasView, figures: Mapping[str, Sequence[Figure]],
         mx = behaviour_matrix(view, partners)
         render("matrix.md.j2", "matrix.md", mx=mx, at=at, starts=family_starts(mx.groups))
     return pages
+
+
+def pair_page(env: jinja2.Environment, pair: PairView, figures: Sequence[Figure],
+              op: OpinionView | None, is_predicted: bool, settings: Any) -> str:
+    """One pair page: it reads this pair alone (see :mod:`.pair_page`), not the atlas."""
+    return env.get_template("pair.md.j2").render(
+        site=settings, rel=_relative(pair.url), here=pair.url, p=pair, sheet=datasheet(pair),
+        figures=_grouped(figures), op=op, fitted_events=fitted_events(pair.trace_events),
+        is_predicted=is_predicted)
 
 
 def _behaviours(rows: Sequence[PartnerRow]) -> list[tuple[str, str]]:
