@@ -190,12 +190,16 @@ def binodal(model: ActivityModel, T_K: float) -> LiquidSplit | None:
     def ln_activities(u: FloatArray) -> tuple[FloatArray, FloatArray]:
         xs = 1.0 / (1.0 + np.exp(-u))  # logit keeps both liquids inside (0, 1)
         ln_g1, ln_g2 = model.ln_gamma(xs, T_K)
-        return np.log(xs) + ln_g1, np.log(1.0 - xs) + ln_g2
+        with np.errstate(divide="ignore"):  # a liquid at a pure end to round-off
+            return np.log(xs) + ln_g1, np.log(1.0 - xs) + ln_g2
 
     def equations(u: FloatArray) -> FloatArray:
         a1, a2 = ln_activities(u)
         return np.array([a1[0] - a1[1], a2[0] - a2[1]])
 
+    if not 0.0 < gap[0] < gap[1] < 1.0:
+        # A hull corner at a pure end (a liquid nearly pure to round-off): no logit start.
+        return LiquidSplit(T_K=float(T_K), x1_a=float(gap[0]), x1_b=float(gap[1]))
     guess = np.log(np.array(gap) / (1.0 - np.array(gap)))
     u, info, ok, _ = fsolve(equations, guess, full_output=True, xtol=1e-13)
     xa, xb = sorted(1.0 / (1.0 + np.exp(-u)))

@@ -159,7 +159,8 @@ class EquilibriumResult:
     def relative_volatility(self, system: BinarySystem) -> FloatArray:
         """``α12 = K1/K2`` (``γ1 P1sat / (γ2 P2sat)`` for an ideal gas)."""
         K1, K2 = self.k_values(system)
-        return K1 / K2
+        with np.errstate(divide="ignore"):  # K2 = 0: a vapour pure to round-off (α infinite)
+            return K1 / K2
 
 
 def k_values(
