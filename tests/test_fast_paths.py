@@ -9,7 +9,6 @@ own tangent-plane test and successive substitution (the former methods, kept).
 
 from __future__ import annotations
 
-import math
 from dataclasses import replace
 
 import numpy as np
@@ -20,31 +19,17 @@ from builder.analysis.convexity import MARGIN, convex_temperatures
 from builder.analysis.phases import analyse, analyse_isobars
 from builder.analysis.point import system_for
 from builder.analysis.stability import binodal
-from builder.catalogue.group_tables import group_tables
 from builder.catalogue.loader import Catalogue
 from builder.catalogue.predictive import predicted_pair, predictive_model
 from builder.thermo.activity import Margules
 from builder.thermo.bubble_vapour import _substitution, bubble_vapour
-from builder.thermo.unifac import UNIFAC
 from builder.thermo.vapour import VirialComponent, VirialVapour
+from tests.test_unifac import _thermo_ln_gamma  # thermo's UNIFAC for the same subgroups
 
 thermo_unifac = pytest.importorskip("thermo.unifac")
 
 PAIRS = [("ethanol", "water"), ("n-hexane", "water"), ("methanol", "cyclohexane"),
          ("acetone", "toluene")]
-
-
-def _thermo_ln_gamma(model: UNIFAC, x1: float, T: float) -> tuple[float, float]:
-    table = group_tables(model.variant)
-    groups = [{table.subgroups[name].number: int(n)
-               for name, n in zip(model.subgroups, row, strict=True) if n} for row in model.nu]
-    kwargs = ({"version": 0} if model.variant == "unifac" else
-              {"version": 1, "interaction_data": thermo_unifac.DOUFIP2006,
-               "subgroups": thermo_unifac.DOUFSG})
-    ref = thermo_unifac.UNIFAC.from_subgroups(T=T, xs=[x1, 1 - x1], chemgroups=groups,
-                                              **kwargs)
-    g1, g2 = ref.gammas()
-    return math.log(g1), math.log(g2)
 
 
 @pytest.mark.parametrize("variant", ["unifac", "dortmund"])
