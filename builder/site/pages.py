@@ -25,6 +25,7 @@ from builder.site import TEMPLATES
 from builder.site.context import BEHAVIOURS, AtlasView, ComponentView, Display, PairView
 from builder.site.datasheet import datasheet
 from builder.site.figures import Figure
+from builder.site.index_data import index_data, index_script
 from builder.site.matrix import behaviour_matrix, family_starts
 from builder.site.opinion import OpinionView, fitted_events
 from builder.site.partners import NO_PAGE, PartnerRow, Partners
@@ -100,7 +101,8 @@ def render_pages(view: AtlasView, figures: Mapping[str, Sequence[Figure]],
             site=view.settings, atlas=view, rel=_relative(path), here=path, **context)
 
     render("index.md.j2", "index.md", opinions=opinions, predicted=predicted,
-           withheld=withheld)
+           withheld=withheld,
+           index_script=index_script(index_data(view, opinions, predicted)))
     render("components.md.j2", "components/index.md")
     render("methods.md.j2", "methods.md", **methods_context)
     render("catalogue.md.j2", "catalogue.md")
