@@ -174,6 +174,16 @@ def test_a_linked_view_opens_and_back_returns(site: Path, atlas: dict,
         page.go_back()
         page.wait_for_function(f"() => document.querySelector('{COUNT}')"
                                ".textContent.startsWith('showing 1–')")
+    # The pager from the keyboard: Enter on Next, twice (the focus stays on Next).
+    _open(page, site, "#rows=50")
+    if _count(page)[2] > 100:
+        page.locator("#atlas-pager button", has_text="Next").focus()
+        page.keyboard.press("Enter")
+        assert page.evaluate("() => document.activeElement.dataset.step") == "next"
+        page.keyboard.press("Enter")
+        assert _count(page)[:2] == (101, min(150, _count(page)[2]))
+        assert "page=3" in page.url and "rows=50" in page.url
+    _open(page, site)
     # Typing a word makes one history entry, not one per key.
     page.locator("#atlas-text").click()
     page.keyboard.type("toluene", delay=10)

@@ -215,6 +215,7 @@
       nav.hidden = pages <= 1;
       if (pages <= 1) return;
       var prev = pageButton(nav, "‹ Previous", page - 1, false, "previous page");
+      prev.dataset.step = "previous";
       prev.disabled = page <= 1;
       var shown = [1, pages, page - 2, page - 1, page, page + 1, page + 2].filter(
         function (n, i, all) { return n >= 1 && n <= pages && all.indexOf(n) === i; });
@@ -229,6 +230,7 @@
         pageButton(nav, grouped(n), n, n === page, "page " + n + " of " + pages);
       });
       var next = pageButton(nav, "Next ›", page + 1, false, "next page");
+      next.dataset.step = "next";
       next.disabled = page >= pages;
     }
 
@@ -325,11 +327,14 @@
       nav.addEventListener("click", function (event) {
         var button = event.target.closest ? event.target.closest("button[data-page]") : null;
         if (!button || button.disabled) return;
-        var page = parseInt(button.dataset.page, 10);
+        var page = parseInt(button.dataset.page, 10), step = button.dataset.step;
         change(function (s) { s.page = page; }, false);
         if (nav.id === "atlas-pager") table.scrollIntoView({ block: "start" });
-        var again = nav.querySelector('button[data-page="' + page + '"][aria-current]');
-        if (again) again.focus();
+        /* The buttons are drawn anew: keep the focus on the one pressed (Next stays on
+           Next while there is a next page), else on the page now shown. */
+        var again = (step && nav.querySelector('button[data-step="' + step + '"]:not(:disabled)')) ||
+          nav.querySelector("button[aria-current]");
+        if (again) again.focus({ preventScroll: true });
       });
     });
 
