@@ -10,7 +10,10 @@ builder never reuses stale work.  A component's figure is keyed the same way
 by its own file.
 
 Entries are pickles under ``<cache>/work/<k[:2]>/<key>.pickle``, written to a
-temporary name and renamed, so a killed build leaves no half-written entry.
+temporary name and renamed, so a killed build leaves no half-written entry.  A
+pair's own files (page, downloads, figures) are kept apart, in ``<key>.files``
+beside its entry and written before it, so that a build reads the small entry of
+every pair and the files only of those it writes (:mod:`.assemble`).
 The cache lives outside the published folder (by default ``.atlas-cache/``
 beside the output folder; git-ignored) and may be deleted at any time;
 ``atlas build --no-cache`` ignores what it holds.
@@ -129,8 +132,10 @@ class BuildCache:
     def _path(self, key: str) -> Path:
         return self.root / "work" / key[:2] / f"{key}.pickle"
 
-    def get(self, key: str) -> Any | None:
-        if not self.read:
+    def get(self, key: str, *, with_files: bool = False) -> Any | None:
+        """The entry stored under ``key`` (None: not stored, unreadable, or -- with
+        ``with_files`` -- stored without its files)."""
+        if not self.read or (with_files and not self._path(key).with_suffix(".files").is_file()):
             self.misses += 1
             return None
         try:
@@ -142,14 +147,20 @@ class BuildCache:
         self.hits += 1
         return value
 
+    def files(self, key: str) -> Any:
+        """The files stored beside the entry of ``key`` (read whether or not this build
+        reads the cache: they are what this build stored)."""
+        with self._path(key).with_suffix(".files").open("rb") as handle:
+            return pickle.load(handle)
+
     def prune(self, keep: set[str]) -> int:
         """Delete stored work whose key is not in ``keep`` (after a build of the whole
         catalogue: what no current file needs); the number of entries deleted."""
         removed = 0
-        for path in (self.root / "work").glob("*/*.pickle"):
-            if path.stem not in keep:
+        for path in (self.root / "work").glob("*/*.*"):
+            if path.suffix in (".pickle", ".files") and path.stem not in keep:
                 path.unlink(missing_ok=True)
-                removed += 1
+                removed += path.suffix == ".pickle"
         return removed
 
     def load_memo(self, name: str) -> dict[str, Any]:
@@ -165,7 +176,10 @@ class BuildCache:
         memo["\0code"] = code_version()  # another version of the builder starts afresh
         self._write(self.root / f"{name}.pickle", memo)
 
-    def put(self, key: str, value: Any) -> None:
+    def put(self, key: str, value: Any, files: Any = None) -> None:
+        """Store ``value`` under ``key``, and ``files`` apart beside it (:meth:`files`)."""
+        if files is not None:
+            self._write(self._path(key).with_suffix(".files"), files)
         self._write(self._path(key), value)
 
     def _write(self, path: Path, value: Any) -> None:
