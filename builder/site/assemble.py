@@ -201,6 +201,7 @@ def assemble(content: SiteContent, settings: SiteSettings, out_dir: Path, source
     from mkdocs.commands.build import build
     from mkdocs.config import load_config
 
+    from builder.site.page_memory import ReleasePageText
     from builder.site.raw_html import RawHtmlPassThrough
 
     collector = _Collect()
@@ -214,6 +215,7 @@ def assemble(content: SiteContent, settings: SiteSettings, out_dir: Path, source
     try:
         config = load_config(config_file=str(config_file), strict=strict)
         config.plugins["atlas-raw-html"] = RawHtmlPassThrough()
+        config.plugins["atlas-release-pages"] = ReleasePageText()
         build(config, dirty=incremental)
     except mkdocs_exceptions.MkDocsException as error:
         details = "; ".join(collector.messages)
