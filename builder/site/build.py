@@ -54,7 +54,14 @@ from builder.site.assemble import (
     assemble,
     check_output_folder,
 )
-from builder.site.cache import BuildCache, code_version, component_key, default_cache_dir, pair_key
+from builder.site.cache import (
+    BuildCache,
+    FileDigests,
+    code_version,
+    component_key,
+    default_cache_dir,
+    pair_key,
+)
 from builder.site.content import Bundle, site_content
 from builder.site.executor import Executor, LocalExecutor, default_workers
 from builder.site.pair_entry import PairEntry
@@ -256,8 +263,10 @@ def build_site(catalogue_dir: Path | str = DEFAULT_CATALOGUE, out_dir: Path | st
                 "catalogue; skipped")
         work_catalogue = replace(catalogue, pairs={**catalogue.pairs, **selection.records})
         pair_ids, component_ids = sorted(work_catalogue.pairs), sorted(catalogue.components)
-        pair_keys = {pid: pair_key(work_catalogue, pid, settings) for pid in pair_ids}
-        component_keys = {cid: component_key(catalogue, cid, settings) for cid in component_ids}
+        digests = FileDigests()  # each input file read once for all the keys
+        pair_keys = {pid: pair_key(work_catalogue, pid, settings, digests) for pid in pair_ids}
+        component_keys = {cid: component_key(catalogue, cid, settings, digests)
+                          for cid in component_ids}
         pair_work = _run_work(
             [(pid, pair_keys[pid], pair_task(work_catalogue, pid, settings,
                                              predicted=pid in selection.records))

@@ -34,7 +34,8 @@ from builder.catalogue.loader import Catalogue
 from builder.site import TEMPLATES
 from builder.site.settings import SiteSettings
 
-__all__ = ["BuildCache", "code_version", "component_key", "default_cache_dir", "pair_key"]
+__all__ = ["BuildCache", "FileDigests", "code_version", "component_key", "default_cache_dir",
+           "pair_key"]
 
 #: The builder package (every ``.py`` under it is part of the code version).
 _PACKAGE = Path(__file__).resolve().parent.parent
@@ -74,49 +75,82 @@ def _file_bytes(path: Path) -> bytes:
         return b"(missing)"
 
 
-def _hash(parts: list[tuple[str, bytes]]) -> str:
+class FileDigests:
+    """Files' SHA-256 digests, with the reference files they cite, read once per build.
+
+    Every pair's key hashes the group tables and the pair-page templates, and each
+    component's file is hashed for all its pairs: thousands of reads of the same files
+    at full size.  One build reads and hashes each file, and each set of files, once (a
+    new instance for every build, so that an edit between builds is always seen).
+    """
+
+    def __init__(self) -> None:
+        self._files: dict[str, tuple[bytes, frozenset[str]]] = {}
+        self._sets: dict[tuple[str, tuple[tuple[str, str], ...]], bytes] = {}
+
+    def _file(self, path: str) -> tuple[bytes, frozenset[str]]:
+        known = self._files.get(path)
+        if known is None:
+            data = _file_bytes(Path(path))
+            known = self._files[path] = (hashlib.sha256(data).digest(), frozenset(
+                _REF.findall(data.decode("utf-8", "replace"))))
+        return known
+
+    def of(self, root: Path, files: tuple[tuple[str, str], ...]) -> bytes:
+        """The digest of ``files`` (name, path) and of the reference files (under
+        ``root/references``) they cite (``ref: some-id``)."""
+        memo = (str(root), files)
+        known = self._sets.get(memo)
+        if known is None:
+            digest = hashlib.sha256()
+            cited: set[str] = set()
+            for name, path in files:
+                file_digest, refs = self._file(path)
+                cited |= refs
+                digest.update(name.encode() + b"\0" + file_digest)
+            for ref in sorted(cited):
+                path = os.path.join(root, "references", f"{ref}.yaml")
+                digest.update(f"references/{ref}".encode() + b"\0" + self._file(path)[0])
+            known = self._sets[memo] = digest.digest()
+        return known
+
+
+def _key(kind: str, settings: SiteSettings, root: Path,
+         *file_sets: tuple[tuple[str, str], ...], digests: FileDigests | None) -> str:
+    digests = digests or FileDigests()
     digest = hashlib.sha256()
-    for name, data in parts:
-        digest.update(name.encode())
-        digest.update(b"\0")
-        digest.update(hashlib.sha256(data).digest())
+    for name, data in (("kind", kind.encode()), ("code", code_version().encode()),
+                       ("settings", _settings_text(settings).encode())):
+        digest.update(name.encode() + b"\0" + hashlib.sha256(data).digest())
+    for files in file_sets:
+        digest.update(digests.of(root, files))
     return digest.hexdigest()
 
 
-def _with_references(catalogue: Catalogue, files: list[tuple[str, bytes]]
-                     ) -> list[tuple[str, bytes]]:
-    cited = sorted({ref for _name, data in files
-                    for ref in _REF.findall(data.decode("utf-8", "replace"))})
-    root = catalogue.root
-    return files + [(f"references/{ref}", _file_bytes(root / "references" / f"{ref}.yaml"))
-                    for ref in cited]
-
-
-def pair_key(catalogue: Catalogue, pair_id: str, settings: SiteSettings) -> str:
-    """The hash of everything a pair's results and figures depend on."""
+def pair_key(catalogue: Catalogue, pair_id: str, settings: SiteSettings,
+             digests: FileDigests | None = None) -> str:
+    """The hash of everything a pair's results and figures depend on (``digests``: the
+    build's file digests, each file read once)."""
     pair = catalogue.pairs[pair_id]
     root = catalogue.root
-    files = [(f"binaries/{pair_id}", _file_bytes(root / "binaries" / f"{pair_id}.yaml"))]
-    files += [(f"components/{cid}", _file_bytes(root / "components" / f"{cid}.yaml"))
-              for cid in (pair.component1, pair.component2)]
-    # The group tables: predicted pairs and the second opinion of fitted ones rest on them.
-    files += [(f"groups/{path.name}", _file_bytes(path))
-              for path in sorted((root / "groups").glob("*.yaml"))]
-    # The templates of the pair page, which the worker renders (.pair_page).
-    files += [(f"templates/{name}", _file_bytes(TEMPLATES / "pages" / name))
-              for name in PAIR_PAGE_TEMPLATES]
-    return _hash([("kind", b"pair"), ("code", code_version().encode()),
-                  ("settings", _settings_text(settings).encode()),
-                  *_with_references(catalogue, files)])
+    own = ((f"binaries/{pair_id}", str(root / "binaries" / f"{pair_id}.yaml")),
+           *((f"components/{cid}", str(root / "components" / f"{cid}.yaml"))
+             for cid in (pair.component1, pair.component2)))
+    # The group tables: predicted pairs and the second opinion of fitted ones rest on them;
+    # and the templates of the pair page, which the worker renders (.pair_files).
+    shared = (*((f"groups/{path.name}", str(path))
+                for path in sorted((root / "groups").glob("*.yaml"))),
+              *((f"templates/{name}", str(TEMPLATES / "pages" / name))
+                for name in PAIR_PAGE_TEMPLATES))
+    return _key("pair", settings, root, own, shared, digests=digests)
 
 
-def component_key(catalogue: Catalogue, component_id: str, settings: SiteSettings) -> str:
+def component_key(catalogue: Catalogue, component_id: str, settings: SiteSettings,
+                  digests: FileDigests | None = None) -> str:
     """The hash of everything a component's figure depends on."""
-    files = [(f"components/{component_id}",
-              _file_bytes(catalogue.root / "components" / f"{component_id}.yaml"))]
-    return _hash([("kind", b"component"), ("code", code_version().encode()),
-                  ("settings", _settings_text(settings).encode()),
-                  *_with_references(catalogue, files)])
+    root = catalogue.root
+    own = ((f"components/{component_id}", str(root / "components" / f"{component_id}.yaml")),)
+    return _key("component", settings, root, own, digests=digests)
 
 
 class BuildCache:
