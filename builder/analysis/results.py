@@ -189,10 +189,9 @@ def predicted_split_warnings(pair: PairRecord,
     splits poorly -- too wide, too narrow, or where the liquids mix (common practice)."""
     if pair.quality != "predicted" or all(bool(np.all(c.liquid_stable)) for c in conditions):
         return ()
-    return ("The two-liquid region shown is predicted by a group-contribution model whose "
-            "parameters were fitted to vapour-liquid data; such predictions of liquid-liquid "
-            "splits are often wrong in extent and sometimes show a split where the liquids "
-            "mix. Check the mutual solubilities against measured data before relying on it.",)
+    return ("Two liquids are predicted here: group-contribution parameters fitted to "
+            "vapour-liquid data often misjudge liquid-liquid splits, and can show one where "
+            "the liquids mix; check mutual solubilities against measured data.",)
 
 
 def compute_pair(catalogue: Catalogue, pair: PairRecord) -> PairResults:
