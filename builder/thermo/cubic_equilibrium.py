@@ -37,7 +37,7 @@ import numpy as np
 from numpy.typing import ArrayLike, NDArray
 
 from builder.thermo.activity import Ideal
-from builder.thermo.cubic import CubicMixture, pr_ln_phi
+from builder.thermo.cubic import CubicMixture, pr_ln_phi_phases
 
 if TYPE_CHECKING:
     from builder.thermo.equilibrium import BinarySystem
@@ -57,7 +57,10 @@ __all__ = [
 
 FloatArray = NDArray[np.float64]
 BoolArray = NDArray[np.bool_]
-Residual = Callable[[FloatArray, FloatArray, BoolArray], tuple[FloatArray, FloatArray]]
+IntArray = NDArray[np.intp]
+#: ``residual(u, v, points)``: the two residuals of each row, ``points`` the index of the
+#: point (its condition and known composition) each row belongs to.
+Residual = Callable[[FloatArray, FloatArray, IntArray], tuple[FloatArray, FloatArray]]
 
 #: Coexisting phases closer than this in mole fraction are taken as the trivial solution.
 TRIVIAL_GAP = 1e-6
@@ -97,10 +100,30 @@ def _mixture(system: BinarySystem) -> CubicMixture:
     return mixture
 
 
+def _both_phases(mix: CubicMixture, x: FloatArray, y: FloatArray, T: FloatArray,
+                 P: FloatArray) -> tuple[FloatArray, FloatArray, FloatArray, FloatArray,
+                                         FloatArray, FloatArray]:
+    """``ln φ1, ln φ2, Z`` of the liquids ``x`` and of the vapours ``y`` at (T, P), in one
+    evaluation of the equation of state (flat arrays of equal length)."""
+    n = x.size
+    T2, P2 = np.concatenate([T, T]), np.concatenate([P, P])
+    vapour = np.zeros(2 * n, dtype=bool)
+    vapour[n:] = True
+    l1, l2, z = pr_ln_phi_phases(np.concatenate([x, y]), T2, P2, mix.Tc_K, mix.Pc_Pa,
+                                 mix.omega, mix.kij, vapour)
+    return l1[:n], l2[:n], z[:n], l1[n:], l2[n:], z[n:]
+
+
 def _ln_k(mix: CubicMixture, x: FloatArray, y: FloatArray, T: FloatArray, P: FloatArray
           ) -> tuple[FloatArray, FloatArray]:
-    l1, l2 = mix.ln_phi_phase(x, T, P, "liquid")
-    v1, v2 = mix.ln_phi_phase(y, T, P, "vapour")
+    x, y = np.asarray(x, dtype=float), np.asarray(y, dtype=float)
+    T, P = np.asarray(T, dtype=float), np.asarray(P, dtype=float)
+    if x.ndim != 1 or not (x.shape == y.shape == T.shape == P.shape):
+        shape = np.broadcast_shapes(x.shape, y.shape, T.shape, P.shape)
+        x, y, T, P = (np.broadcast_to(v, shape).ravel() for v in (x, y, T, P))
+        k1, k2 = _ln_k(mix, x, y, T, P)
+        return k1.reshape(shape), k2.reshape(shape)
+    l1, l2, _, v1, v2, _ = _both_phases(mix, x, y, T, P)
     return l1 - v1, l2 - v2
 
 
@@ -125,7 +148,11 @@ def k_values(mix: CubicMixture, x1: ArrayLike, T_K: ArrayLike, P_Pa: ArrayLike,
 def _newton(residual: Residual, u: FloatArray, v: FloatArray,
             u_bounds: tuple[float, float], v_bounds: tuple[float, float],
             max_du: float, maxiter: int = 50) -> tuple[FloatArray, FloatArray, BoolArray]:
-    """Damped Newton for two unknowns per point, finite-difference Jacobian."""
+    """Damped Newton for two unknowns per point, finite-difference Jacobian.
+
+    Each step evaluates the point and its two shifted copies (the Jacobian's columns) in
+    one call of ``residual`` on three stacked copies of the active points.
+    """
     u, v = u.astype(float).copy(), v.astype(float).copy()
     n = u.size
     active = np.isfinite(u) & np.isfinite(v)
@@ -134,14 +161,14 @@ def _newton(residual: Residual, u: FloatArray, v: FloatArray,
         if not active.any():
             break
         idx = np.flatnonzero(active)
-        mask = np.zeros(n, dtype=bool)
-        mask[idx] = True
+        m = idx.size
         ua, va = u[idx], v[idx]
-        r1, r2 = residual(ua, va, mask)
         hu = 1e-7 * np.maximum(np.abs(ua), 1.0)
         hv = np.where(va > 0.5, -1e-7, 1e-7)
-        s1, s2 = residual(ua + hu, va, mask)
-        t1, t2 = residual(ua, va + hv, mask)
+        q1, q2 = residual(np.concatenate([ua, ua + hu, ua]), np.concatenate([va, va, va + hv]),
+                          np.concatenate([idx, idx, idx]))
+        r1, s1, t1 = q1[:m], q1[m:2 * m], q1[2 * m:]
+        r2, s2, t2 = q2[:m], q2[m:2 * m], q2[2 * m:]
         j11, j21 = (s1 - r1) / hu, (s2 - r2) / hu
         j12, j22 = (t1 - r1) / hv, (t2 - r2) / hv
         det = j11 * j22 - j12 * j21
@@ -149,10 +176,10 @@ def _newton(residual: Residual, u: FloatArray, v: FloatArray,
             du = -(r1 * j22 - r2 * j12) / det
             dv = -(j11 * r2 - j21 * r1) / det
         bad = ~(np.isfinite(du) & np.isfinite(dv) & np.isfinite(r1) & np.isfinite(r2))
-        du = np.clip(np.where(bad, 0.0, du), -max_du, max_du)
-        dv = np.clip(np.where(bad, 0.0, dv), -0.2, 0.2)
-        u_new = np.clip(ua + du, *u_bounds)
-        v_new = np.clip(va + dv, *v_bounds)
+        du = np.minimum(np.maximum(np.where(bad, 0.0, du), -max_du), max_du)
+        dv = np.minimum(np.maximum(np.where(bad, 0.0, dv), -0.2), 0.2)
+        u_new = np.minimum(np.maximum(ua + du, u_bounds[0]), u_bounds[1])
+        v_new = np.minimum(np.maximum(va + dv, v_bounds[0]), v_bounds[1])
         size = np.maximum(np.abs(r1), np.abs(r2))
         small = (size < 1e-11) & (
             np.abs(u_new - ua) <= 1e-9 * np.maximum(np.abs(ua), 1.0)) & (
@@ -174,8 +201,9 @@ def _k_residual(mix: CubicMixture, x: FloatArray, y: FloatArray, T: FloatArray, 
 def _trivial(mix: CubicMixture, x: FloatArray, y: FloatArray, T: FloatArray, P: FloatArray
              ) -> BoolArray:
     """Points where the two "phases" are one: same composition and same density root."""
-    _, _, z_liquid = pr_ln_phi(x, T, P, mix.Tc_K, mix.Pc_Pa, mix.omega, mix.kij, "liquid")
-    _, _, z_vapour = pr_ln_phi(y, T, P, mix.Tc_K, mix.Pc_Pa, mix.omega, mix.kij, "vapour")
+    x, y = np.asarray(x, dtype=float), np.asarray(y, dtype=float)
+    T, P = np.broadcast_to(T, x.shape).astype(float), np.broadcast_to(P, x.shape).astype(float)
+    *_, z_liquid, _, _, z_vapour = _both_phases(mix, x, y, T, P)
     same_root = np.abs(z_liquid - z_vapour) <= 1e-7 * np.abs(z_vapour)
     # A liquid no denser than its vapour is a spurious root pairing, not two phases.
     inverted = z_liquid > z_vapour * (1.0 + 1e-12)
@@ -210,10 +238,11 @@ def _solve(kind: str, system: BinarySystem, z: FloatArray, condition: FloatArray
     else:
         u0[fallback] = np.log(0.5 * (mix.Pc_Pa[0] + mix.Pc_Pa[1]))
 
-    def residual(u: FloatArray, v: FloatArray, mask: BoolArray) -> tuple[FloatArray, FloatArray]:
-        T = u if by_T else condition[mask]
-        P = condition[mask] if by_T else np.exp(u)
-        x, y = (z[mask], v) if bubble else (v, z[mask])
+    def residual(u: FloatArray, v: FloatArray, points: IntArray
+                 ) -> tuple[FloatArray, FloatArray]:
+        T = u if by_T else condition[points]
+        P = condition[points] if by_T else np.exp(u)
+        x, y = (z[points], v) if bubble else (v, z[points])
         return _k_residual(mix, x, y, T, P)
 
     u_bounds = (1.0, 5.0 * max(mix.Tc_K)) if by_T else (np.log(1.0), np.log(1e9))
@@ -245,15 +274,10 @@ def _solve(kind: str, system: BinarySystem, z: FloatArray, condition: FloatArray
             break
         retry, start = failed[step_ok], nearest[step_ok]
         ur, vr = u[start].copy(), v[start] + (z[retry] - z[start])
-        sub = np.zeros(z.size, dtype=bool)
-        sub[retry] = True
-        order = np.flatnonzero(sub)
 
-        def sub_residual(uu: FloatArray, vv: FloatArray, mask: BoolArray,
-                         _order: NDArray[np.intp] = order) -> tuple[FloatArray, FloatArray]:
-            full = np.zeros(z.size, dtype=bool)
-            full[_order[mask]] = True
-            return residual(uu, vv, full)
+        def sub_residual(uu: FloatArray, vv: FloatArray, rows: IntArray,
+                         _retry: IntArray = retry) -> tuple[FloatArray, FloatArray]:
+            return residual(uu, vv, _retry[rows])
 
         un, vn, okn = _newton(sub_residual, ur, np.clip(vr, 0.0, 1.0), u_bounds, (0.0, 1.0),
                               max_du)
@@ -308,8 +332,9 @@ def _flash(mix: CubicMixture, T: FloatArray, P: FloatArray, x0: FloatArray, y0: 
     """The coexisting ``x1, y1`` at fixed (T, P) from nearby guesses, element by element;
     False where there is none or only the trivial one."""
 
-    def residual(u: FloatArray, v: FloatArray, mask: BoolArray) -> tuple[FloatArray, FloatArray]:
-        return _k_residual(mix, u, v, T[mask], P[mask])
+    def residual(u: FloatArray, v: FloatArray, points: IntArray
+                 ) -> tuple[FloatArray, FloatArray]:
+        return _k_residual(mix, u, v, T[points], P[points])
 
     x, y, ok = _newton(residual, x0, y0, (0.0, 1.0), (0.0, 1.0), 0.05)
     good = ok & ~_trivial(mix, x, y, T, P) & (
