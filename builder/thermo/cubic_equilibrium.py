@@ -259,6 +259,7 @@ def _solve(kind: str, system: BinarySystem, z: FloatArray, condition: FloatArray
     ok = accept(u, v, ok, np.arange(z.size))
     # Continuation: retry failed points from their nearest converged neighbour, a grid
     # step at a time (enough sweeps to walk into a critical region from the Raoult guesses).
+    dead_ends: set[tuple[int, int]] = set()
     for _ in range(CONTINUATION_SWEEPS):
         failed = np.flatnonzero(~ok)
         good = np.flatnonzero(ok)
@@ -273,6 +274,13 @@ def _solve(kind: str, system: BinarySystem, z: FloatArray, condition: FloatArray
         if not step_ok.any():
             break
         retry, start = failed[step_ok], nearest[step_ok]
+        # A point that failed from the same converged neighbour fails again (the same
+        # start, the same arithmetic): leave it out, as if retried.
+        new = np.array([(int(i), int(j)) not in dead_ends for i, j in zip(retry, start,
+                                                                          strict=True)])
+        if not new.any():
+            break
+        retry, start = retry[new], start[new]
         ur, vr = u[start].copy(), v[start] + (z[retry] - z[start])
 
         def sub_residual(uu: FloatArray, vv: FloatArray, rows: IntArray,
@@ -282,6 +290,7 @@ def _solve(kind: str, system: BinarySystem, z: FloatArray, condition: FloatArray
         un, vn, okn = _newton(sub_residual, ur, np.clip(vr, 0.0, 1.0), u_bounds, (0.0, 1.0),
                               max_du)
         okn = accept(un, vn, okn, retry)
+        dead_ends.update(zip(retry[~okn].tolist(), start[~okn].tolist(), strict=True))
         if not okn.any():
             break
         u[retry[okn]], v[retry[okn]] = un[okn], vn[okn]
