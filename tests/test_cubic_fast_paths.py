@@ -76,6 +76,50 @@ def test_cubic_roots_against_numpy_polynomial_roots() -> None:
         assert zv == pytest.approx(real[-1], rel=1e-8, abs=1e-12)
 
 
+def _former_z_roots(A: np.ndarray, B: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
+    """``pr_z_roots`` as it was before its array operations were pared (commit ec94f42),
+    kept verbatim as the reference of the faster form."""
+    a, b = A.ravel(), B.ravel()
+    c2 = -(1.0 - b)
+    c1 = a - 3.0 * b**2 - 2.0 * b
+    c0 = -(a * b - b**2 - b**3)
+    shift = -c2 / 3.0
+    p = c1 - c2**2 / 3.0
+    q = 2.0 * c2**3 / 27.0 - c2 * c1 / 3.0 + c0
+    disc = (q / 2.0) ** 2 + (p / 3.0) ** 3
+    one = disc > 0
+    with np.errstate(invalid="ignore", divide="ignore"):
+        root_d = np.sqrt(np.where(one, disc, 0.0))
+        single = np.cbrt(-q / 2.0 + root_d) + np.cbrt(-q / 2.0 - root_d) + shift
+        m = 2.0 * np.sqrt(np.where(one, 0.0, -p / 3.0))
+        arg = np.clip(np.where(one | (p == 0), 0.0, 3.0 * q / (p * m)), -1.0, 1.0)
+        theta = np.arccos(arg) / 3.0
+        three = np.stack([m * np.cos(theta - 2.0 * np.pi * k / 3.0) + shift for k in range(3)])
+    roots = np.where(one[None, :], single[None, :], three)
+    for _ in range(2):
+        f = ((roots + c2) * roots + c1) * roots + c0
+        df = (3.0 * roots + 2.0 * c2) * roots + c1
+        with np.errstate(invalid="ignore", divide="ignore"):
+            roots = roots - np.where(df != 0, f / df, 0.0)
+    valid = roots > b[None, :]
+    return (np.where(valid, roots, np.inf).min(axis=0),
+            np.where(valid, roots, -np.inf).max(axis=0))
+
+
+@pytest.mark.parametrize("A_range, B_range", [
+    ((0.001, 1.5), (0.0005, 0.2)),  # some points with one real root, some with three
+    ((1.0, 1.5), (0.0005, 0.2)),  # all with one
+    ((0.1, 0.2), (0.005, 0.01))])  # all with three
+def test_cubic_roots_equal_the_former_form(A_range: tuple[float, float],
+                                           B_range: tuple[float, float]) -> None:
+    """Bit for bit, whether the points have one real root, three, or some of each (the
+    faster form skips the unused closed form when all points agree)."""
+    rng = np.random.default_rng(4)
+    A, B = rng.uniform(*A_range, 200), rng.uniform(*B_range, 200)
+    for ours, former in zip(pr_z_roots(A, B), _former_z_roots(A, B), strict=True):
+        np.testing.assert_array_equal(ours, former)
+
+
 def test_newton_rows_are_independent(systems: dict[str, eq.BinarySystem]) -> None:
     """A solve of many points gives each point exactly what it gets solved alone (the
     stacked evaluation changes nothing, the premise of the speculative march)."""

@@ -96,15 +96,21 @@ def _z_roots_flat(a: FloatArray, b: FloatArray) -> tuple[FloatArray, FloatArray]
     q = 2.0 * c2**3 / 27.0 - c2 * c1 / 3.0 + c0
     disc = (q / 2.0) ** 2 + (p / 3.0) ** 3
     one = disc > 0
+    # Where every point has one real root (or every point three), the other form is not
+    # evaluated; each point's arithmetic is the same either way.
+    every, none = bool(one.all()), not one.any()
     with np.errstate(invalid="ignore", divide="ignore"):
-        root_d = np.sqrt(np.where(one, disc, 0.0))
-        single = np.cbrt(-q / 2.0 + root_d) + np.cbrt(-q / 2.0 - root_d) + shift
-        m = 2.0 * np.sqrt(np.where(one, 0.0, -p / 3.0))
-        arg = np.minimum(np.maximum(
-            np.where(one | (p == 0), 0.0, 3.0 * q / (p * m)), -1.0), 1.0)
-        theta = np.arccos(arg) / 3.0
-        three = m * np.cos(theta - _ROOT_ANGLES) + shift
-        roots = np.where(one, single, three)
+        if not none:
+            root_d = np.sqrt(np.where(one, disc, 0.0))
+            single = np.cbrt(-q / 2.0 + root_d) + np.cbrt(-q / 2.0 - root_d) + shift
+        if not every:
+            m = 2.0 * np.sqrt(np.where(one, 0.0, -p / 3.0))
+            arg = np.minimum(np.maximum(
+                np.where(one | (p == 0), 0.0, 3.0 * q / (p * m)), -1.0), 1.0)
+            theta = np.arccos(arg) / 3.0
+            three = m * np.cos(theta - _ROOT_ANGLES) + shift
+        roots = (single[None, :] if every else three if none
+                 else np.where(one, single, three))
         for _ in range(2):
             f = ((roots + c2) * roots + c1) * roots + c0
             df = (3.0 * roots + 2.0 * c2) * roots + c1
