@@ -118,6 +118,7 @@ def test_cubic_roots_equal_the_former_form(A_range: tuple[float, float],
     A, B = rng.uniform(*A_range, 200), rng.uniform(*B_range, 200)
     for ours, former in zip(pr_z_roots(A, B), _former_z_roots(A, B), strict=True):
         np.testing.assert_array_equal(ours, former)
+    assert all(r.shape == (0,) for r in pr_z_roots(np.array([]), np.array([])))
 
 
 def test_newton_rows_are_independent(systems: dict[str, eq.BinarySystem]) -> None:

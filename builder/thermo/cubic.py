@@ -98,7 +98,8 @@ def _z_roots_flat(a: FloatArray, b: FloatArray) -> tuple[FloatArray, FloatArray]
     one = disc > 0
     # Where every point has one real root (or every point three), the other form is not
     # evaluated; each point's arithmetic is the same either way.
-    every, none = bool(one.all()), not one.any()
+    every = bool(one.all())
+    none = not every and not one.any()
     with np.errstate(invalid="ignore", divide="ignore"):
         if not none:
             root_d = np.sqrt(np.where(one, disc, 0.0))
