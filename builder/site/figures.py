@@ -34,6 +34,7 @@ from matplotlib.figure import Figure as MplFigure
 from matplotlib.lines import Line2D
 from matplotlib.patches import Patch
 from matplotlib.ticker import FuncFormatter
+from matplotlib.transforms import ScaledTranslation
 from numpy.typing import NDArray
 
 from builder.analysis.results import ConditionResult, PairResults
@@ -41,6 +42,8 @@ from builder.analysis.second_opinion import SecondOpinion
 from builder.catalogue.records import Component
 from builder.site.context import Display, condition_slug
 from builder.site.figures_canvas import Kept, svg_bytes
+from builder.site.figures_legend import LightLegend
+from builder.site.figures_text import LightText
 from builder.site.opinion_figures import Overlay, TraceOverlay, trace_overlay, txy_overlay
 from builder.site.settings import SiteSettings
 from builder.site.text import fmt, mpl_text, one_line, safe_id
@@ -140,19 +143,19 @@ def _legend_below(fig: MplFigure, ax: Axes, handles: Sequence[Line2D | Patch],
     fig.set_size_inches(width, height + extra)
     _margins(fig, left=left, bottom=0.48 + extra, top=top, wspace=wspace)
     # From near the figure's left edge, so that two columns of labels have its whole width.
-    ax.legend(handles=handles, loc="upper left",
-              bbox_to_anchor=(-(left - 0.12) / axes_width, -0.44 / axes_height),
-              ncol=ncol, frameon=False, borderaxespad=0.0, handlelength=2.4,
-              columnspacing=1.4, fontsize=7.5)
+    ax.add_artist(LightLegend(handles, loc="upper left", transform=ax.transAxes,
+                              anchor=(-(left - 0.12) / axes_width, -0.44 / axes_height),
+                              ncol=ncol, border_pad=0.0, handlelength=2.4,
+                              columnspacing=1.4, fontsize=7.5))
 
 
 def _titles(ax: Axes, title: str, names: str = "") -> None:
     """A bold title and, above the axes under it, the pair or component it shows."""
     ax.set_title(title, loc="left", pad=15 if names else 6)
     if names:
-        ax.annotate(names, xy=(0.0, 1.0), xycoords="axes fraction", xytext=(0, 4),
-                    textcoords="offset points", va="bottom", ha="left", fontsize=8,
-                    color="#3a444c")
+        ax.add_artist(LightText(0.0, 1.0, names, va="bottom", ha="left", fontsize=8,
+                                color="#3a444c", clip_on=False, transform=ax.transAxes
+                                + ScaledTranslation(0, 4 / 72, ax.figure.dpi_scale_trans)))
 
 
 def _plain_log(axis: Any) -> None:

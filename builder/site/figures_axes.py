@@ -33,6 +33,8 @@ from matplotlib.textpath import TextToPath
 from matplotlib.ticker import NullLocator
 from matplotlib.transforms import ScaledTranslation
 
+from builder.site.figures_text import draw_text
+
 __all__ = ["light_axes", "text_size_pt"]
 
 _TEXT = TextToPath()
@@ -80,7 +82,7 @@ class _Labels(Artist):
     def draw(self, renderer: Any) -> None:
         if self.get_visible():
             for text in self._texts:
-                text.draw(renderer)
+                draw_text(text, renderer)
 
 
 def _ticks(axis: Axis, minor: bool) -> tuple[list[float], list[str]]:

@@ -31,6 +31,7 @@ from matplotlib.ticker import AutoLocator, NullFormatter, NullLocator, ScalarFor
 from matplotlib.transforms import Bbox
 
 from builder.site.figures_axes import light_axes
+from builder.site.figures_text import make_light
 from builder.site.svg import compact
 
 __all__ = ["Kept", "svg_bytes"]
@@ -123,14 +124,15 @@ class Kept:
         if fig is None:
             fig = MplFigure(figsize=size_in)
             FigureCanvasSVG(fig)
-            fig.subplots(rows, cols, squeeze=False)
+            for ax in fig.subplots(rows, cols, squeeze=False).flat:
+                make_light(ax)
             figures[key] = fig
         else:
             fig.set_size_inches(size_in)
             for legend in list(fig.legends):
                 legend.remove()
-            for text in list(fig.texts):
-                text.remove()
+            for artist in [*fig.texts, *fig.artists]:
+                artist.remove()
             for ax in fig.axes:
                 _reset(ax)
         return fig, list(fig.axes)

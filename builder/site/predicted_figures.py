@@ -14,11 +14,14 @@ import matplotlib
 import numpy as np
 from matplotlib.figure import Figure as MplFigure
 from matplotlib.lines import Line2D
+from matplotlib.transforms import ScaledTranslation
 
 from builder.analysis.results import ConditionResult, PairResults
 from builder.site.context import Display, condition_slug, summary_condition
 from builder.site.figures import BUBBLE_COLOUR, DEW_COLOUR, STYLE, Figure
 from builder.site.figures_canvas import Kept, svg_bytes
+from builder.site.figures_legend import LightLegend
+from builder.site.figures_text import LightText
 from builder.site.settings import SiteSettings
 from builder.site.text import fmt, mpl_text, one_line, safe_id
 
@@ -71,9 +74,11 @@ def _draw(results: PairResults, result: ConditionResult, display: Display) -> Mp
                               f"{display.T(a.T_K)}"))
     n1, n2 = mpl_text(results.component1.name), mpl_text(results.component2.name)
     txy.set_title(f"Txy at {display.condition(result)} (predicted)", loc="left", pad=15)
-    txy.annotate(f"{n1} (1) + {n2} (2), {mpl_text(results.pair.model.name)}", xy=(0, 1),
-                 xycoords="axes fraction", xytext=(0, 4), textcoords="offset points",
-                 va="bottom", ha="left", fontsize=8, color="#3a444c")
+    txy.add_artist(LightText(0.0, 1.0, f"{n1} (1) + {n2} (2), "
+                             f"{mpl_text(results.pair.model.name)}", va="bottom", ha="left",
+                             fontsize=8, color="#3a444c", clip_on=False,
+                             transform=txy.transAxes + ScaledTranslation(
+                                 0, 4 / 72, fig.dpi_scale_trans)))
     txy.set_ylabel(f"Temperature / {display.T_unit}")
     txy.set_xlabel(f"x1, y1: mole fraction of {n1}")
     xy.set_title("xy diagram", loc="left", pad=15)
@@ -82,8 +87,9 @@ def _draw(results: PairResults, result: ConditionResult, display: Display) -> Mp
     for ax in (txy, xy):
         ax.set_xlim(0, 1)
     xy.set_ylim(0, 1)
-    fig.legend(handles=handles, loc="lower left", bbox_to_anchor=(0.06, 0.0),
-               ncol=min(4, len(handles)), frameon=False, fontsize=7.5)
+    fig.add_artist(LightLegend(handles, loc="lower left", anchor=(0.06, 0.0),
+                               transform=fig.transFigure, ncol=min(4, len(handles)),
+                               fontsize=7.5))
     return fig
 
 
