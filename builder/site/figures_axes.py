@@ -67,22 +67,28 @@ def text_size_pt(text: str, size_pt: float) -> tuple[float, float]:
 
 class _Labels(Artist):
     """Tick labels drawn together: one artist on the axes instead of one per label
-    (adding an artist to axes costs more than making it)."""
+    (adding an artist to axes costs more than making it), each group of labels drawn
+    with one text whose words and place change from label to label (making a text
+    costs more than drawing it)."""
 
-    def __init__(self, ax: Axes, texts: list[Text]) -> None:
+    def __init__(self, ax: Axes, groups: list[tuple[Text, list[tuple[float, float, str]]]]
+                 ) -> None:
         super().__init__()
-        self._texts = texts
+        self._groups = groups
         self.set_zorder(1.5)
-        for text in texts:
+        for text, _labels in groups:
             text.set_figure(ax.figure)
 
     def get_children(self) -> list[Artist]:
-        return list(self._texts)
+        return [text for text, _labels in self._groups]
 
     def draw(self, renderer: Any) -> None:
         if self.get_visible():
-            for text in self._texts:
-                draw_text(text, renderer)
+            for text, labels in self._groups:
+                for x, y, label in labels:
+                    text.set_text(label)
+                    text.set_position((x, y))
+                    draw_text(text, renderer)
 
 
 def _ticks(axis: Axis, minor: bool) -> tuple[list[float], list[str]]:
@@ -111,7 +117,7 @@ def _draw_axis(ax: Axes, axis: Axis, which: str) -> Callable[[], None]:
     if label_colour == "inherit":
         label_colour = colour
     reach = 0.0  # how far the tick labels reach from the axes (points)
-    texts: list[Text] = []
+    groups: list[tuple[Text, list[tuple[float, float, str]]]] = []
     for minor in (False, True):
         if minor and isinstance(axis.get_minor_locator(), NullLocator):
             continue  # a linear axis: no minor ticks (and no need to ask)
@@ -139,14 +145,17 @@ def _draw_axis(ax: Axes, axis: Axis, which: str) -> Callable[[], None]:
                   markeredgewidth=float(rc[f"{which}tick.{kind}.width"]), clip_on=False,
                   zorder=1.5)
         ax.add_artist(marks)
+        placed: list[tuple[float, float, str]] = []
         for loc, label in zip(locs, labels, strict=True):
             if not label:
                 continue
-            xy = (loc, 0.0) if which == "x" else (0.0, loc)
-            texts.append(Text(*xy, label, transform=text_transform, va=va, ha=ha,
-                              fontsize=label_size, color=label_colour, clip_on=False))
+            placed.append((loc, 0.0, label) if which == "x" else (0.0, loc, label))
             width, height = text_size_pt(label, label_size)
             reach = max(reach, pad + (height if which == "x" else width))
+        if placed:
+            groups.append((Text(0.0, 0.0, "", transform=text_transform, va=va, ha=ha,
+                                fontsize=label_size, color=label_colour, clip_on=False),
+                           placed))
         if not minor and rc["axes.grid"] and rc["axes.grid.which"] in ("major", "both") \
                 and rc["axes.grid.axis"] in ("both", which):
             nan = float("nan")
@@ -160,16 +169,18 @@ def _draw_axis(ax: Axes, axis: Axis, which: str) -> Callable[[], None]:
     offset = axis.get_major_formatter().get_offset()
     if offset:
         if which == "x":
-            texts.append(Text(1.0, 0.0, offset, va="top", ha="right", fontsize=label_size,
-                              color=label_colour, clip_on=False, transform=ax.transAxes
-                              + ScaledTranslation(0, -(reach + 2) / 72,
-                                                  ax.figure.dpi_scale_trans)))
+            groups.append((Text(0.0, 0.0, "", va="top", ha="right", fontsize=label_size,
+                                color=label_colour, clip_on=False, transform=ax.transAxes
+                                + ScaledTranslation(0, -(reach + 2) / 72,
+                                                    ax.figure.dpi_scale_trans)),
+                           [(1.0, 0.0, offset)]))
         else:
-            texts.append(Text(0.0, 1.0, offset, va="bottom", ha="left", fontsize=label_size,
-                              color=label_colour, clip_on=False, transform=ax.transAxes
-                              + ScaledTranslation(0, 2 / 72, ax.figure.dpi_scale_trans)))
-    if texts:
-        ax.add_artist(_Labels(ax, texts))
+            groups.append((Text(0.0, 0.0, "", va="bottom", ha="left", fontsize=label_size,
+                                color=label_colour, clip_on=False, transform=ax.transAxes
+                                + ScaledTranslation(0, 2 / 72, ax.figure.dpi_scale_trans)),
+                           [(0.0, 1.0, offset)]))
+    if groups:
+        ax.add_artist(_Labels(ax, groups))
     major, minor_locator = axis.get_major_locator(), axis.get_minor_locator()
     axis.set_major_locator(NullLocator())
     axis.set_minor_locator(NullLocator())

@@ -41,7 +41,8 @@ class LightLegend(Artist):
     """Legend entries (``handles``: proxy lines or patches carrying their labels) in
     ``ncol`` columns, with the corner ``loc`` at ``anchor`` (in ``transform``'s
     coordinates), ``border_pad`` font sizes inside the anchor as matplotlib's
-    ``borderaxespad``."""
+    ``borderaxespad``.  A proxy line that belongs to no figure is drawn itself (the
+    legend sets its data, transform and marker placement), any other handle is copied."""
 
     def __init__(self, handles: Sequence[Line2D | Patch], *, anchor: tuple[float, float],
                  transform: Transform, loc: str = "upper left", ncol: int = 1,
@@ -68,41 +69,48 @@ class LightLegend(Artist):
         colour = rc["legend.labelcolor"]
         if colour in (None, "None"):
             colour = rc["text.color"]
-        self._entries: list[tuple[Artist, Text]] = []
+        self._entries: list[tuple[Artist, str]] = []
         for handle in handles:
-            label = str(handle.get_label())
             artist: Artist
-            if isinstance(handle, Patch):
-                artist = Rectangle((0.0, 0.0), 1.0, 1.0)
+            if isinstance(handle, Line2D) and handle.get_figure(root=False) is None:
+                artist = handle  # a proxy drawn nowhere else: drawn as it is (no copy)
+            elif isinstance(handle, Line2D):
+                artist = Line2D([], [])
+                artist.update_from(handle)
             else:
-                artist = Line2D([0.0, 0.0, 0.0], [0.0, 0.0, 0.0], markevery=[1])
-            artist.update_from(handle)
+                artist = Rectangle((0.0, 0.0), 1.0, 1.0)
+                artist.update_from(handle)
+            if isinstance(artist, Line2D):
+                artist.set_markevery([1])
             artist.set_transform(IdentityTransform())
-            text = Text(0.0, 0.0, label, fontproperties=self._prop, va="baseline", ha="left",
-                        color=colour, transform=IdentityTransform())
-            self._entries.append((artist, text))
+            self._entries.append((artist, str(handle.get_label())))
+        # One text drawn at every entry in turn (making a text costs more than drawing it).
+        self._text = Text(0.0, 0.0, "", fontproperties=self._prop, va="baseline", ha="left",
+                          color=colour, transform=IdentityTransform())
         self.set_zorder(5)
 
     def set_figure(self, fig: Any) -> None:
         super().set_figure(fig)
-        for artist, text in self._entries:
+        for artist, _label in self._entries:
             artist.set_figure(fig)
-            text.set_figure(fig)
+        self._text.set_figure(fig)
 
     def get_children(self) -> list[Artist]:
-        return [a for entry in self._entries for a in entry]
+        return [*(artist for artist, _label in self._entries), self._text]
 
     def draw(self, renderer: Any) -> None:
         if not self.get_visible() or not self._entries:
             return
         renderer.open_group("legend", gid=self.get_gid())
-        for artist, text in self._layout(renderer):
+        for artist, label, xy in self._layout(renderer):
             artist.draw(renderer)
-            draw_text(text, renderer)
+            self._text.set_text(label)
+            self._text.set_position(xy)
+            draw_text(self._text, renderer)
         renderer.close_group("legend")
         self.stale = False
 
-    def _layout(self, renderer: Any) -> list[tuple[Artist, Text]]:
+    def _layout(self, renderer: Any) -> list[tuple[Artist, str, tuple[float, float]]]:
         """Place every entry (display units, y up) as matplotlib's legend boxes would."""
         scale = renderer.points_to_pixels(1.0)
         fs = self._fontsize
@@ -115,8 +123,8 @@ class LightLegend(Artist):
         _w, lp_height, lp_descent = renderer.get_text_width_height_descent(
             "lp", self._prop, ismath=False)
         sizes = []
-        for _artist, text in self._entries:
-            width, ascent, descent = line_metrics(renderer, text.get_text(), self._prop, dpi)
+        for _artist, label in self._entries:
+            width, ascent, descent = line_metrics(renderer, label, self._prop, dpi)
             above = max(lp_height - lp_descent, ascent)
             sizes.append((text_x + width, min(-handle_descent, -descent),
                           max(handle_height - handle_descent, above)))
@@ -152,9 +160,9 @@ class LightLegend(Artist):
         left = anchor_x + axes_pad * (1 - 2 * fx) - fx * width
         bottom = anchor_y + axes_pad * (1 - 2 * fy) - fy * height
         base_x, base_y = left + pad, bottom + pad - low
-        out: list[tuple[Artist, Text]] = []
+        out: list[tuple[Artist, str, tuple[float, float]]] = []
         for i, x0, y0 in placed:
-            artist, text = self._entries[i]
+            artist, label = self._entries[i]
             ex, ey = base_x + x0, base_y + y0
             if isinstance(artist, Rectangle):
                 artist.set_bounds(ex, ey - handle_descent, handle_width, handle_height)
@@ -162,6 +170,5 @@ class LightLegend(Artist):
                 assert isinstance(artist, Line2D)
                 middle = ey + (handle_height - handle_descent) / 2
                 artist.set_data([ex, ex + handle_width / 2, ex + handle_width], [middle] * 3)
-            text.set_position((ex + text_x, ey))
-            out.append((artist, text))
+            out.append((artist, label, (ex + text_x, ey)))
         return out
