@@ -19,7 +19,7 @@ from matplotlib.transforms import ScaledTranslation
 from builder.analysis.results import ConditionResult, PairResults
 from builder.site.context import Display, condition_slug, summary_condition
 from builder.site.figures import BUBBLE_COLOUR, DEW_COLOUR, STYLE, Figure
-from builder.site.figures_canvas import Kept, svg_bytes
+from builder.site.figures_canvas import Kept, plot_line, svg_bytes
 from builder.site.figures_legend import LightLegend
 from builder.site.figures_text import LightText
 from builder.site.settings import SiteSettings
@@ -47,28 +47,28 @@ def _draw(results: PairResults, result: ConditionResult, display: Display) -> Mp
     fig.subplots_adjust(left=0.62 / w, right=1 - 0.15 / w, bottom=0.95 / h, top=1 - 0.5 / h,
                         wspace=0.32)
     marks = _every_tenth(curve.x1)
-    txy.plot(curve.x1, T, color=BUBBLE_COLOUR, marker="o", markevery=marks)
-    txy.plot(curve.y1, T, color=DEW_COLOUR, marker="s", markerfacecolor="white",
-             markevery=marks)
-    xy.plot([0, 1], [0, 1], color="#8a8a8a", linestyle=":", linewidth=0.9)
-    xy.plot(curve.x1, y1, color=BUBBLE_COLOUR, marker="o", markevery=marks)
+    plot_line(txy, curve.x1, T, color=BUBBLE_COLOUR, marker="o", markevery=marks)
+    plot_line(txy, curve.y1, T, color=DEW_COLOUR, marker="s", markerfacecolor="white",
+              markevery=marks)
+    plot_line(xy, [0, 1], [0, 1], color="#8a8a8a", linestyle=":", linewidth=0.9)
+    plot_line(xy, curve.x1, y1, color=BUBBLE_COLOUR, marker="o", markevery=marks)
     handles = [Line2D([], [], color=BUBBLE_COLOUR, marker="o", label="bubble line (x1)"),
                Line2D([], [], color=DEW_COLOUR, marker="s", markerfacecolor="white",
                       label="dew line (y1)")]
     three = result.three_phase
     if three is not None:
         level = display.T_value(three.T_K)
-        txy.plot([three.x1_a, three.x1_b], [level, level], color="#4b4b4b", linewidth=3.2,
-                 solid_capstyle="butt", zorder=5)
-        xy.plot([three.x1_a, three.x1_b], [three.y1, three.y1], color="#4b4b4b",
-                linewidth=3.2, solid_capstyle="butt", zorder=5)
+        plot_line(txy, [three.x1_a, three.x1_b], [level, level], color="#4b4b4b",
+                  linewidth=3.2, solid_capstyle="butt", zorder=5)
+        plot_line(xy, [three.x1_a, three.x1_b], [three.y1, three.y1], color="#4b4b4b",
+                  linewidth=3.2, solid_capstyle="butt", zorder=5)
         handles.append(Line2D([], [], color="#4b4b4b", linewidth=3.2,
                               label="three-phase line"))
     for a in result.azeotropes:
-        txy.plot([a.x1], [display.T_value(a.T_K)], marker="*", markersize=11, color="black",
-                 linestyle="none", zorder=7)
-        xy.plot([a.x1], [a.x1], marker="*", markersize=11, color="black", linestyle="none",
-                zorder=7)
+        plot_line(txy, [a.x1], [display.T_value(a.T_K)], marker="*", markersize=11,
+                  color="black", linestyle="none", zorder=7)
+        plot_line(xy, [a.x1], [a.x1], marker="*", markersize=11, color="black", linestyle="none",
+                  zorder=7)
         handles.append(Line2D([], [], marker="*", markersize=11, color="black",
                               linestyle="none", label=f"azeotrope x1 = {fmt(a.x1, 3)}, "
                               f"{display.T(a.T_K)}"))
