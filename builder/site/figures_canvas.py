@@ -22,12 +22,16 @@ import threading
 from typing import Any
 
 import matplotlib as mpl
+import numpy as np
+from matplotlib import colors as mcolors
+from matplotlib import font_manager
 from matplotlib.axes import Axes
 from matplotlib.axis import Axis
 from matplotlib.backends.backend_svg import (
     FigureCanvasSVG,
     RendererSVG,
     _generate_css,
+    _generate_transform,
     _short_float_fmt,
 )
 from matplotlib.figure import Figure as MplFigure
@@ -44,6 +48,7 @@ __all__ = ["Kept", "plot_line", "svg_bytes"]
 
 _SIZES: dict[tuple[str, Any, FontProperties], tuple[float, float, float]] = {}
 _HEIGHTS: dict[FontProperties, tuple[Any, Any, Any]] = {}
+_TEXT_CSS: dict[tuple[FontProperties, Any, str], str] = {}
 
 
 class _Renderer(RendererSVG):
@@ -122,6 +127,41 @@ class _Renderer(RendererSVG):
         writer.end("g")
 
 
+    def write_text_line(self, s: str, prop: FontProperties, colour: Any, alpha: float | None,
+                        ha: str, xy: tuple[float, float], anchor: tuple[float, float],
+                        angle: float) -> None:
+        """One line of text as matplotlib's SVG renderer writes it for a text anchored at
+        ``anchor`` (display units, y up) and laid out to start at ``xy`` (y down), with
+        no clip or link (the same bytes), its style worked out once per font, colour and
+        alignment for the process."""
+        rgba = mcolors.to_rgba(colour) if alpha is None else mcolors.to_rgba(colour, alpha)
+        key = (prop.copy(), rgba, ha)
+        style = _TEXT_CSS.get(key)
+        if style is None:
+            color_style = {}
+            hex_colour = mcolors.rgb2hex(rgba)
+            if hex_colour != "#000000":
+                color_style["fill"] = hex_colour
+            if rgba[3] != 1:
+                color_style["opacity"] = _short_float_fmt(rgba[3])
+            anchor_css = {"left": "start", "right": "end", "center": "middle"}[ha]
+            style = _generate_css({**_font_css(prop), "text-anchor": anchor_css,
+                                   **color_style})
+            if len(_TEXT_CSS) < 5_000:
+                _TEXT_CSS[key] = style
+        x, y = xy
+        ax, ay = anchor[0], self.height - anchor[1]
+        # The vertical layout moved onto the anchor point, as matplotlib's renderer does.
+        angle_rad = np.deg2rad(angle)
+        dir_vert = np.array([np.sin(angle_rad), np.cos(angle_rad)])
+        v_offset = np.dot(dir_vert, [(x - ax), (y - ay)])
+        ax = ax + v_offset * dir_vert[0]
+        ay = ay + v_offset * dir_vert[1]
+        self.writer.element("text", s, attrib={
+            "style": style, "x": _short_float_fmt(ax), "y": _short_float_fmt(ay),
+            "transform": _generate_transform([("rotate", (-angle, ax, ay))])})
+
+
 def raw_svg(fig: MplFigure) -> bytes:
     """``fig`` as SVG, byte for byte what ``fig.savefig(format="svg")`` writes without
     date and creator metadata."""
@@ -151,6 +191,38 @@ def svg_bytes(fig: MplFigure) -> bytes:
         for step in restore:
             step()
     return compact(raw)
+
+
+def _font_css(prop: FontProperties) -> dict[str, str]:
+    """The CSS font properties matplotlib's SVG renderer gives a text set in ``prop`` (its
+    ``_draw_text_as_text``)."""
+    style: dict[str, str] = {}
+    if prop.get_style() != "normal":
+        style["font-style"] = prop.get_style()
+    if prop.get_variant() != "normal":
+        style["font-variant"] = prop.get_variant()
+    weight: Any = prop.get_weight()
+    weight = font_manager.weight_dict.get(weight, weight)
+    if weight != 400:
+        style["font-weight"] = f"{weight}"
+
+    def normal_sans(name: str) -> str:
+        return "sans-serif" if name in ("sans", "sans serif") else name
+
+    names = []
+    for entry in prop.get_family():
+        entry = normal_sans(entry)
+        if entry in font_manager.font_family_aliases:
+            names += [normal_sans(name) for name in
+                      font_manager.FontManager._expand_aliases(entry)]  # type: ignore[attr-defined]
+        names.append(entry)
+    quoted = [name if name in font_manager.font_family_aliases else repr(name)
+              for name in names]
+    style["font-size"] = f"{_short_float_fmt(prop.get_size())}px"
+    style["font-family"] = ", ".join(dict.fromkeys(quoted))
+    if prop.get_stretch() != "normal":
+        style["font-stretch"] = str(prop.get_stretch())
+    return style
 
 
 def plot_line(ax: Axes, x: Any, y: Any, **style: Any) -> Line2D:

@@ -135,6 +135,21 @@ def draw_text(text: Text, renderer: Any) -> None:
     if not (np.isfinite(posx) and np.isfinite(posy)):
         renderer.close_group("text")
         return
+    x_draw, y_draw = dx + posx, dy + posy
+    if renderer.flipy():
+        y_draw = renderer.get_canvas_width_height()[1] - y_draw
+    angle = text.get_rotation()
+    write = getattr(renderer, "write_text_line", None)
+    if (write is not None and text.get_url() is None
+            and (angle == 0 or text.get_rotation_mode() == "anchor")
+            and not (text.get_clip_on() and (text.get_clip_box() is not None
+                                             or text.get_clip_path() is not None))):
+        # What the SVG renderer's draw_text writes for such a text, without its drawing state.
+        write(s, prop, text.get_color(), text.get_alpha(), text.get_horizontalalignment(),
+              (x_draw, y_draw), (posx, posy), angle)
+        renderer.close_group("text")
+        text.stale = False
+        return
     gc = renderer.new_gc()
     gc.set_foreground(mcolors.to_rgba(text.get_color()), isRGBA=True)
     gc.set_alpha(text.get_alpha())
@@ -142,11 +157,7 @@ def draw_text(text: Text, renderer: Any) -> None:
     gc.set_antialiased(text._antialiased)  # type: ignore[attr-defined]
     gc.set_snap(text.get_snap())
     text._set_gc_clip(gc)  # type: ignore[attr-defined]
-    x_draw, y_draw = dx + posx, dy + posy
-    if renderer.flipy():
-        y_draw = renderer.get_canvas_width_height()[1] - y_draw
-    renderer.draw_text(gc, x_draw, y_draw, s, prop, text.get_rotation(), ismath=False,
-                       mtext=text)
+    renderer.draw_text(gc, x_draw, y_draw, s, prop, angle, ismath=False, mtext=text)
     gc.restore()
     renderer.close_group("text")
     text.stale = False
