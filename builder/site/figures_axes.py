@@ -65,30 +65,40 @@ def text_size_pt(text: str, size_pt: float) -> tuple[float, float]:
     return _text_size(text, float(size_pt), family)
 
 
-class _Labels(Artist):
-    """Tick labels drawn together: one artist on the axes instead of one per label
-    (adding an artist to axes costs more than making it), each group of labels drawn
-    with one text whose words and place change from label to label (making a text
-    costs more than drawing it)."""
+#: One group of tick labels: the text that draws them and their places and words.
+_Group = tuple[Text, list[tuple[float, float, str]]]
 
-    def __init__(self, ax: Axes, groups: list[tuple[Text, list[tuple[float, float, str]]]]
-                 ) -> None:
+
+class _AxisArtists(Artist):
+    """An axis' tick marks, grid and tick labels drawn together, in the order given: one
+    artist on the axes instead of several (adding an artist to axes costs more than
+    making it).  Each group of labels is drawn with one text whose words and place change
+    from label to label (making a text costs more than drawing it)."""
+
+    def __init__(self, ax: Axes, parts: list[Line2D | _Group]) -> None:
         super().__init__()
-        self._groups = groups
+        self._parts = parts
         self.set_zorder(1.5)
-        for text, _labels in groups:
-            text.set_figure(ax.figure)
+        for part in parts:
+            artist = part if isinstance(part, Line2D) else part[0]
+            artist.set_figure(ax.figure)
+            artist.axes = ax
 
     def get_children(self) -> list[Artist]:
-        return [text for text, _labels in self._groups]
+        return [part if isinstance(part, Line2D) else part[0] for part in self._parts]
 
     def draw(self, renderer: Any) -> None:
-        if self.get_visible():
-            for text, labels in self._groups:
-                for x, y, label in labels:
-                    text.set_text(label)
-                    text.set_position((x, y))
-                    draw_text(text, renderer)
+        if not self.get_visible():
+            return
+        for part in self._parts:
+            if isinstance(part, Line2D):
+                part.draw(renderer)
+                continue
+            text, labels = part
+            for x, y, label in labels:
+                text.set_text(label)
+                text.set_position((x, y))
+                draw_text(text, renderer)
 
 
 def _ticks(axis: Axis, minor: bool) -> tuple[list[float], list[str]]:
@@ -117,7 +127,8 @@ def _draw_axis(ax: Axes, axis: Axis, which: str) -> Callable[[], None]:
     if label_colour == "inherit":
         label_colour = colour
     reach = 0.0  # how far the tick labels reach from the axes (points)
-    groups: list[tuple[Text, list[tuple[float, float, str]]]] = []
+    parts: list[Line2D | _Group] = []  # drawn in this order
+    groups: list[_Group] = []  # drawn after the marks and grid
     for minor in (False, True):
         if minor and isinstance(axis.get_minor_locator(), NullLocator):
             continue  # a linear axis: no minor ticks (and no need to ask)
@@ -144,7 +155,7 @@ def _draw_axis(ax: Axes, axis: Axis, which: str) -> Callable[[], None]:
         marks.set(color=colour, markersize=size,
                   markeredgewidth=float(rc[f"{which}tick.{kind}.width"]), clip_on=False,
                   zorder=1.5)
-        ax.add_artist(marks)
+        parts.append(marks)
         placed: list[tuple[float, float, str]] = []
         for loc, label in zip(locs, labels, strict=True):
             if not label:
@@ -165,7 +176,8 @@ def _draw_axis(ax: Axes, axis: Axis, which: str) -> Callable[[], None]:
                 Line2D(across, along, transform=edge)
             grid.set(color=rc["grid.color"], linewidth=float(rc["grid.linewidth"]),
                      linestyle=rc["grid.linestyle"], alpha=rc["grid.alpha"], zorder=1.5)
-            ax.add_artist(grid)
+            grid.set_clip_path(ax.patch)  # inside the axes, as added to them
+            parts.append(grid)
     offset = axis.get_major_formatter().get_offset()
     if offset:
         if which == "x":
@@ -179,8 +191,9 @@ def _draw_axis(ax: Axes, axis: Axis, which: str) -> Callable[[], None]:
                                 color=label_colour, clip_on=False, transform=ax.transAxes
                                 + ScaledTranslation(0, 2 / 72, ax.figure.dpi_scale_trans)),
                            [(0.0, 1.0, offset)]))
-    if groups:
-        ax.add_artist(_Labels(ax, groups))
+    parts += groups
+    if parts:
+        ax.add_artist(_AxisArtists(ax, parts))
     major, minor_locator = axis.get_major_locator(), axis.get_minor_locator()
     axis.set_major_locator(NullLocator())
     axis.set_minor_locator(NullLocator())
