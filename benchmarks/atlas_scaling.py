@@ -4,7 +4,9 @@ The shipped catalogue is built with ``predicted_pairs`` set to the first n compo
 (in id order), so the atlas holds the fitted pairs plus every predicted combination
 among those n components: about 100, 300, 1,000 pairs and the whole atlas (every
 combination of every component).  Prints, per size, the pair pages, wall and CPU time
-(the build and its worker processes), peak memory of the process tree, the stages of
+(the build and its worker processes), peak memory of the process tree (the sum of its
+processes' PSS, which is the physical memory it takes, and the sum of their RSS, which
+counts a page the forked workers share once per process), the stages of
 the build, the site size and the search index size, for docs/benchmarks.md.
 
 Unlike the synthetic catalogues of ``benchmarks/build.py``, these are the pages an
@@ -62,9 +64,9 @@ def main() -> None:
     args = parser.parse_args()
     ids = sorted(p.stem for p in (REPO / "pairs" / "components").glob("*.yaml"))
     print(f"machine: {os.cpu_count()} cores; load average {os.getloadavg()[0]:.1f} at start\n")
-    print("| components predicted | combinations | pages built | wall | CPU | peak memory "
-          "| site | search index |")
-    print("|---|---|---|---|---|---|---|---|")
+    print("| components predicted | combinations | pages built | wall | CPU | peak memory (PSS) "
+          "| peak (sum of RSS) | site | search index |")
+    print("|---|---|---|---|---|---|---|---|---|")
     for n in args.components:
         chosen = ids if n == 0 else ids[:n]
         with tempfile.TemporaryDirectory(prefix="atlas-scaling-") as scratch:
@@ -82,13 +84,15 @@ def main() -> None:
                                   + "\nnotes: edited by the benchmark\n", encoding="utf-8")
                 warm = run_build(catalogue, root / "site", *common, workers=args.workers)
         print(f"| {len(chosen)} | {comb(len(chosen), 2)} | {pages} pair pages | "
-              f"{r['wall']:.0f} s | {r['cpu']:.0f} s | {r['peak'] / 2**20:.0f} MiB | "
+              f"{r['wall']:.0f} s | {r['cpu']:.0f} s | {r['peak_pss'] / 2**20:.0f} MiB | "
+              f"{r['peak'] / 2**20:.0f} MiB | "
               f"{r['size'] / 1e6:.0f} MB | {r['index'] / 1e6:.2f} MB |", flush=True)
         print(f"<!-- stages: {r['stages']} -->", flush=True)
         if warm is not None:
             print(f"<!-- after editing one pair file: {warm['wall']:.0f} s wall "
                   f"({warm['wall'] / r['wall']:.1%} of cold), {warm['cpu']:.0f} s CPU "
-                  f"({warm['cpu'] / r['cpu']:.1%}); stages: {warm['stages']} -->", flush=True)
+                  f"({warm['cpu'] / r['cpu']:.1%}), peak memory {warm['peak_pss'] / 2**20:.0f} MiB "
+                  f"(PSS); stages: {warm['stages']} -->", flush=True)
 
 if __name__ == "__main__":
     main()

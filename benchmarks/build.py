@@ -116,20 +116,30 @@ def bench_figures(sample: int | None = None) -> None:
 # -- builds --------------------------------------------------------------------------------
 
 
-def _tree_rss(pid: int) -> int:
+def _tree_memory(pid: int) -> tuple[int, int]:
+    """The process tree's memory: the sum of resident sizes (RSS) and the sum of
+    proportional set sizes (PSS, Linux).
+
+    The worker processes are forked, and share the pages they inherited until they write
+    to them: a sum of RSS counts each shared page once per process that maps it, the sum
+    of PSS divides it among them, which is the physical memory the tree takes.
+    """
     import psutil
 
     try:
-        process = psutil.Process(pid)
-        total = process.memory_info().rss
-        for child in process.children(recursive=True):
-            try:
-                total += child.memory_info().rss
-            except psutil.Error:
-                pass
-        return int(total)
+        processes = [psutil.Process(pid)]
+        processes += processes[0].children(recursive=True)
     except psutil.Error:
-        return 0
+        return 0, 0
+    rss = pss = 0
+    for process in processes:
+        try:
+            full = process.memory_full_info()
+        except psutil.Error:
+            continue
+        rss += full.rss
+        pss += getattr(full, "pss", full.rss)
+    return int(rss), int(pss)
 
 
 def run_build(catalogue: Path, out: Path, *extra: str, workers: int) -> dict[str, float]:
@@ -141,11 +151,12 @@ def run_build(catalogue: Path, out: Path, *extra: str, workers: int) -> dict[str
                                 "build", "--out", str(out), "--workers", str(workers), *extra],
                                stdout=subprocess.PIPE, stderr=subprocess.STDOUT, text=True,
                                env=env, cwd=REPO)
-    peak = [0]
+    peak = [0, 0]
 
     def sample() -> None:
         while process.poll() is None:
-            peak[0] = max(peak[0], _tree_rss(process.pid))
+            rss, pss = _tree_memory(process.pid)
+            peak[0], peak[1] = max(peak[0], rss), max(peak[1], pss)
             time.sleep(0.2)
 
     sampler = threading.Thread(target=sample, daemon=True)
@@ -162,7 +173,8 @@ def run_build(catalogue: Path, out: Path, *extra: str, workers: int) -> dict[str
     stages = [line.strip() for line in output.splitlines()
               if line.startswith("  ") and line.rstrip().endswith(" s")
               and not line.startswith("  stage:")]
-    return {"wall": wall, "cpu": cpu, "peak": peak[0], "size": size, "index": index,
+    return {"wall": wall, "cpu": cpu, "peak": peak[0], "peak_pss": peak[1], "size": size,
+            "index": index,
             "stages": "; ".join(" ".join(s.split()) for s in stages)}  # type: ignore[dict-item]
 
 

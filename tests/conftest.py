@@ -18,6 +18,9 @@ import pytest
 from builder.analysis.point import system_for
 from builder.analysis.results import PairResults, compute_pair
 from builder.catalogue.loader import Catalogue, load_catalogue
+from builder.site.context import AtlasView, build_views
+from builder.site.pair_files import pair_files
+from builder.site.settings import SiteSettings
 from builder.thermo.equilibrium import BinarySystem
 
 # The reference libraries print deprecation chatter on import; it is not ours.
@@ -25,6 +28,16 @@ warnings.filterwarnings("ignore", category=DeprecationWarning)
 os.environ.setdefault("MPLBACKEND", "Agg")
 
 REPO = Path(__file__).resolve().parent.parent
+
+
+def atlas_view(settings: SiteSettings, catalogue: Catalogue,
+               atlas: dict[str, PairResults]) -> AtlasView:
+    """The atlas-wide view of computed results, from the pairs' entries as the build's
+    workers make them (without figures; a pair not in ``catalogue`` is a prediction)."""
+    entries = {pid: pair_files(catalogue, results, (), None, settings,
+                               pid not in catalogue.pairs).entry
+               for pid, results in atlas.items()}
+    return build_views(settings, catalogue, entries)
 
 
 @pytest.fixture(scope="session")

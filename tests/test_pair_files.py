@@ -19,9 +19,9 @@ from builder.analysis.results import compute_pair
 from builder.analysis.second_opinion import second_opinion
 from builder.catalogue.loader import Catalogue
 from builder.site import TEMPLATES, cache
-from builder.site.content import generate
+from builder.site.content import Bundle, generate, site_content
 from builder.site.context import build_views
-from builder.site.figures import pair_figures
+from builder.site.figures import component_figure, pair_figures
 from builder.site.pair_files import pair_files
 from builder.site.predicted import select_predicted
 from builder.site.predicted_figures import predicted_figure
@@ -52,7 +52,8 @@ def test_worker_files_equal_the_main_process_files(catalogue: Catalogue,
                      else pair_figures(atlas[pid], settings, opinions[pid]))
                for pid in atlas}
     selection = replace(selection, records={pid: selection.records[pid] for pid in predicted})
-    view, content = generate(settings, part, atlas, figures, opinions=opinions,
+    comp_figs = {cid: component_figure(part.components[cid], settings) for cid in ids}
+    view, content = generate(settings, part, atlas, figures, comp_figs, opinions=opinions,
                              selection=selection)
     made = {}
     for pid in sorted(atlas):
@@ -61,20 +62,27 @@ def test_worker_files_equal_the_main_process_files(catalogue: Catalogue,
                                settings, pid in predicted)
         page = made[pid].page
         assert page == content.files[f"pairs/{pid}.md"].decode("utf-8"), pid
-        assert len(made[pid].downloads) == 2 * len(atlas[pid].conditions) + 1
-        for path, data in made[pid].downloads:
+        paths = [path for path, _data in made[pid].files]
+        assert paths == list(made[pid].entry.files)
+        # The page, a curve and a table per condition, the JSON, the figures.
+        assert len(paths) == 1 + 2 * len(atlas[pid].conditions) + 1 + len(figures[pid])
+        for path, data in made[pid].files:
             assert data == content.files[path], path
         assert ("Prediction, not fitted data" in page) == (pid in predicted)
         if pid not in predicted:
             assert "Second opinion" in page
-    # The views the workers built, given this atlas's component views, are the main ones
+    # The entries the workers made, given this atlas's component views, are the main ones
     # (compared as text: a missing value is NaN, and NaN != NaN).
-    assert repr(build_views(settings, part, atlas, {pid: m.view for pid, m in made.items()})
+    assert repr(build_views(settings, part, {pid: m.entry for pid, m in made.items()})
                 ) == repr(view)
-    # And the whole site content is the same (atlas.json from the workers' entries).
-    _again, from_workers = generate(settings, part, atlas, figures, opinions=opinions,
-                                    selection=selection, pair_files=made)
-    assert from_workers.files == content.files
+    # And the whole site content is the same, the pairs' files read as bundles when written.
+    _again, from_workers = site_content(
+        settings, part, {pid: m.entry for pid, m in made.items()}, comp_figs,
+        selection=selection, bundles={pid: Bundle("", m.entry.files, lambda m=m: m.files)
+                                      for pid, m in made.items()})
+    assert from_workers.files == {path: data for path, data in content.files.items()
+                                  if not any(path in m.entry.files for m in made.values())}
+    assert sorted(from_workers.bundles) == sorted(made)
 
 
 @pytest.mark.parametrize("name", ["pair.md.j2", "_macros.j2"])

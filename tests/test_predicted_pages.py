@@ -17,7 +17,7 @@ import pytest
 from builder.analysis.results import PairResults, compute_pair
 from builder.catalogue.loader import Catalogue
 from builder.site.content import SiteContent, generate
-from builder.site.context import build_views
+from builder.site.pair_files import page_view
 from builder.site.predicted import NOT_BUILT, select_predicted
 from builder.site.settings import SiteSettings, load_settings
 from tests.conftest import ShippedResults
@@ -114,8 +114,7 @@ def test_summary_states_the_volatility_of_the_lighter_component(catalogue: Catal
     assert (record.component1, record.component2) == ("1-butanol", "2-butanone")
     work = dataclasses.replace(catalogue, pairs={record.id: record})
     results = compute_pair(work, record)
-    view = build_views(SiteSettings(second_opinion=False), work, {record.id: results})
-    (pair,) = view.pairs
+    pair = page_view(work, results, SiteSettings(second_opinion=False))
     volatility = results.isobars[0].volatility
     assert volatility.alpha_max < 1.0
     assert "relative volatility of 2-Butanone over 1-Butanol" in pair.sentence

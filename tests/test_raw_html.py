@@ -14,10 +14,11 @@ from builder.site.raw_html import put_back, set_aside
 from .conftest import cache_sharing_work, hostile_catalogue
 
 
-def _mkdocs(source: Path, out: Path, with_plugin: bool) -> None:
+def _mkdocs(source: Path, out: Path, with_plugin: bool, release: bool = False) -> None:
     from mkdocs.commands.build import build
     from mkdocs.config import load_config
 
+    from builder.site.page_memory import ReleasePageText
     from builder.site.raw_html import RawHtmlPassThrough
 
     config_data = yaml.safe_load((source / "mkdocs.yml").read_text(encoding="utf-8"))
@@ -27,6 +28,8 @@ def _mkdocs(source: Path, out: Path, with_plugin: bool) -> None:
     config = load_config(config_file=str(config_file))
     if with_plugin:
         config.plugins["atlas-raw-html"] = RawHtmlPassThrough()
+    if release:
+        config.plugins["atlas-release-pages"] = ReleasePageText()
     build(config)
 
 
@@ -56,9 +59,12 @@ def test_site_is_the_same_with_and_without_the_bypass(
                cache_dir=cache_sharing_work(shared_work, root), quiet_progress=True)
     _mkdocs(source, root / "plain", with_plugin=False)
     _mkdocs(source, root / "bypass", with_plugin=True)
+    # builder/site/page_memory.py: each page's text let go once used, as the build does.
+    _mkdocs(source, root / "released", with_plugin=True, release=True)
     pages = list((root / "plain").rglob("*.html"))
     assert len(pages) > 90
     assert _different(root / "plain", root / "bypass") == []
+    assert _different(root / "plain", root / "released") == []
 
 
 def test_blocks_set_aside_and_put_back() -> None:

@@ -15,13 +15,13 @@ import yaml
 from builder.analysis.results import PairResults
 from builder.catalogue.loader import Catalogue
 from builder.catalogue.reader import _StrictLoader
-from builder.site.context import AtlasView, build_views, summary_condition
+from builder.site.context import AtlasView, summary_condition
 from builder.site.families import FAMILIES, family, family_of_groups
 from builder.site.matrix import MARKS, behaviour_matrix, family_starts
 from builder.site.pages import render_pages
 from builder.site.partners import NO_PAGE, partner_rows
 from builder.site.settings import SiteSettings
-from tests.conftest import ShippedResults
+from tests.conftest import ShippedResults, atlas_view
 
 PAIRS = ("ethanol--water", "water--1-butanol", "acetone--chloroform", "benzene--toluene")
 
@@ -30,7 +30,7 @@ PAIRS = ("ethanol--water", "water--1-butanol", "acetone--chloroform", "benzene--
 def small(catalogue: Catalogue, shipped_results: ShippedResults
           ) -> tuple[AtlasView, dict[str, PairResults]]:
     atlas = {pid: shipped_results[pid] for pid in PAIRS}
-    return build_views(SiteSettings(), catalogue, atlas), atlas
+    return atlas_view(SiteSettings(), catalogue, atlas), atlas
 
 
 @pytest.mark.parametrize(("cid", "expected"), [
@@ -57,8 +57,8 @@ def test_family_precedence_and_unknown_groups() -> None:
 
 def test_partner_rows_are_every_other_component(catalogue: Catalogue,
                                                 small: tuple[AtlasView, dict]) -> None:
-    view, atlas = small
-    rows = partner_rows(view, catalogue, atlas)
+    view, _atlas = small
+    rows = partner_rows(view, catalogue)
     n = len(catalogue.components)
     assert set(rows) == set(catalogue.components)
     for cid, partners in rows.items():
@@ -75,7 +75,7 @@ def test_partner_rows_are_written_for_the_page_component(catalogue: Catalogue,
                                                           small: tuple[AtlasView, dict]
                                                           ) -> None:
     view, atlas = small
-    rows = partner_rows(view, catalogue, atlas)
+    rows = partner_rows(view, catalogue)
     on_ethanol = {r.partner.id: r for r in rows["ethanol"]}["water"]
     on_water = {r.partner.id: r for r in rows["water"]}["ethanol"]
     assert on_ethanol.behaviour == on_water.behaviour == "minimum-boiling"
@@ -93,8 +93,8 @@ def test_partner_rows_are_written_for_the_page_component(catalogue: Catalogue,
 
 def test_matrix_is_symmetric_grouped_and_complete(catalogue: Catalogue,
                                                   small: tuple[AtlasView, dict]) -> None:
-    view, atlas = small
-    mx = behaviour_matrix(view, partner_rows(view, catalogue, atlas))
+    view, _atlas = small
+    mx = behaviour_matrix(view, partner_rows(view, catalogue))
     n = len(catalogue.components)
     assert len(mx.columns) == len(mx.rows) == n and sum(k for _l, k in mx.groups) == n
     ids = [c.id for c in mx.columns]
@@ -120,7 +120,7 @@ def test_matrix_is_symmetric_grouped_and_complete(catalogue: Catalogue,
     # cannot be predicted names the reason.
     left_out = mx.rows[at["water"]].cells[at["n-octane"]]
     assert left_out.symbol == "×" and left_out.url == "" and left_out.title == ""
-    rows = partner_rows(view, catalogue, atlas, lambda a, b: "cannot be predicted: no groups")
+    rows = partner_rows(view, catalogue, lambda a, b: "cannot be predicted: no groups")
     mx = behaviour_matrix(view, rows)
     assert mx.rows[at["water"]].cells[at["n-octane"]].title.endswith("no groups")
 
@@ -133,8 +133,8 @@ def test_marks_differ_by_symbol_not_colour_alone() -> None:
 
 def test_screening_pages_render_light(catalogue: Catalogue,
                                       small: tuple[AtlasView, dict]) -> None:
-    view, atlas = small
-    pages = render_pages(view, {}, {}, {}, partners=partner_rows(view, catalogue, atlas))
+    view, _atlas = small
+    pages = render_pages(view, {}, {}, partners=partner_rows(view, catalogue))
     matrix = pages["matrix.md"]
     assert "style=" not in matrix and "<script" not in matrix
     n = len(catalogue.components)
@@ -153,8 +153,8 @@ def test_every_page_is_left_out_of_the_theme_search(catalogue: Catalogue,
     # search plugin does not skip is parsed in full for nothing (a component page's partner
     # table made that a fifth of the assembly time).  A second "search:" key in the front
     # matter once overrode "exclude: true": duplicate keys are refused here.
-    view, atlas = small
-    pages = render_pages(view, {}, {}, {}, partners=partner_rows(view, catalogue, atlas))
+    view, _atlas = small
+    pages = render_pages(view, {}, {}, partners=partner_rows(view, catalogue))
     for path, text in pages.items():
         front = text.split("---\n", 2)[1]
         meta = yaml.load(front, Loader=_StrictLoader)

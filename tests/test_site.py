@@ -22,8 +22,8 @@ from builder.analysis.stability import ThreePhase
 from builder.catalogue.loader import Catalogue
 from builder.site.assemble import AssembleError, check_output_folder
 from builder.site.content import SiteContent, generate
-from builder.site.context import build_views
 from builder.site.figures import pair_figures
+from builder.site.pair_files import page_view
 from builder.site.settings import SettingsError, SiteSettings, load_settings
 from builder.site.text import UnsafeName, escape, file_slug, safe_id
 from builder.site.verify import verify_site
@@ -135,9 +135,9 @@ def test_three_phase_line_is_drawn_and_tabulated(catalogue: Catalogue,
     three = ThreePhase(T_K=352.0, P_Pa=first.condition, x1_a=0.2, x1_b=0.6, y1=0.45)
     split = dataclasses.replace(first, three_phase=three)
     altered = dataclasses.replace(results, isobars=(split, *results.isobars[1:]))
-    view = build_views(SiteSettings(), catalogue, {"ethanol--water": altered})
-    assert view.pairs[0].behaviour == "heterogeneous"
-    assert any(r.label == "Liquid compositions x1" for r in view.pairs[0].conditions[0].three_phase)
+    view = page_view(catalogue, altered, SiteSettings())
+    assert view.behaviour == "heterogeneous"
+    assert any(r.label == "Liquid compositions x1" for r in view.conditions[0].three_phase)
     svg = pair_figures(altered, SiteSettings())[0].svg.decode()
     assert "three-phase line" in svg
 
@@ -242,8 +242,7 @@ def test_hostile_catalogue_text_is_inert(hostile_site: Path) -> None:
 def test_views_and_figures_in_other_units(catalogue: Catalogue,
                                           small_atlas: dict[str, PairResults]) -> None:
     settings = SiteSettings(temperature_unit="K", pressure_unit="bar")
-    view = build_views(settings, catalogue, small_atlas)
-    pair = next(p for p in view.pairs if p.id == "ethanol--water")
+    pair = page_view(catalogue, small_atlas["ethanol--water"], settings)
     assert pair.c2.boiling_point.endswith(" K") and pair.conditions[0].label == "1.01325 bar"
     assert pair.summary_label == "1.01325 bar"
     svg = pair_figures(small_atlas["ethanol--water"], settings)[0].svg.decode()

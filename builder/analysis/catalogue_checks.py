@@ -25,8 +25,9 @@ from __future__ import annotations
 
 import math
 import warnings
-from collections.abc import Iterable
+from collections.abc import Iterable, Mapping, Sequence
 from dataclasses import dataclass
+from typing import Protocol
 
 import numpy as np
 
@@ -154,9 +155,27 @@ class CheckRun:
         return lines
 
 
-def failed_sets(catalogue: Catalogue, atlas: dict[str, PairResults]) -> dict[str, list[str]]:
+class CheckedPair(Protocol):
+    """A computed pair as :func:`failed_sets` reads it (e.g. the build's pair entries)."""
+
+    @property
+    def component1(self) -> str: ...
+
+    @property
+    def component2(self) -> str: ...
+
+    @property
+    def failed_checks(self) -> Sequence[tuple[str, str]]:
+        """Every failed check: ``(name, detail)``."""
+        ...
+
+
+def failed_sets(catalogue: Catalogue, pairs: Mapping[str, CheckedPair]) -> dict[str, list[str]]:
     """Pair id -> the located failures of every pair whose checks fail (its own reference
-    checks, or a failed check of one of its components): what ``atlas build`` withholds."""
+    checks, or a failed check of one of its components): what ``atlas build`` withholds.
+
+    ``pairs``: every computed pair by id; one of ``catalogue`` is located by its file, a
+    predicted one by its id."""
     components: dict[str, list[str]] = {}
     for c in check_components(catalogue):
         if c.passed is False:
@@ -164,10 +183,12 @@ def failed_sets(catalogue: Catalogue, atlas: dict[str, PairResults]) -> dict[str
                 f"{c.file}: entry {c.component!r}, check {c.name!r}: expected {c.expected}; "
                 f"found {c.found}")
     out: dict[str, list[str]] = {}
-    for pid, result in atlas.items():
-        lines = [f"{result.pair.file}: entry {pid!r}, check {check.name!r}: {check.detail}"
-                 for check in result.failed_checks]
-        for cid in (result.pair.component1, result.pair.component2):
+    for pid, computed in pairs.items():
+        record = catalogue.pairs.get(pid)
+        where = record.file if record is not None else f"predicted pair {pid}"
+        lines = [f"{where}: entry {pid!r}, check {name!r}: {detail}"
+                 for name, detail in computed.failed_checks]
+        for cid in (computed.component1, computed.component2):
             lines += components.get(cid, [])
         if lines:
             out[pid] = lines

@@ -17,6 +17,7 @@ empty or a site this assembler wrote before (marked by ``.atlas-site``).
 from __future__ import annotations
 
 import html
+import json
 import logging
 import os
 from dataclasses import dataclass, field
@@ -87,6 +88,10 @@ def _config(settings: SiteSettings, docs_dir: Path, site_dir: Path) -> dict[str,
     return config
 
 
+#: The pairs' files the sources hold, by bundle: ``{name: [key, [paths]]}``.
+_BUNDLES = ".atlas-bundles.json"
+
+
 def _wanted(content: SiteContent) -> dict[str, bytes]:
     files = {path.relative_to(TEMPLATES).as_posix(): path.read_bytes()
              for path in sorted((TEMPLATES / "assets").rglob("*")) if path.is_file()}
@@ -94,12 +99,25 @@ def _wanted(content: SiteContent) -> dict[str, bytes]:
     return files
 
 
+def _write_if_changed(docs_dir: Path, path: str, data: bytes, existing: set[str]) -> None:
+    """Write one file unless it holds these bytes already (its time stamp then stays, and
+    an incremental assembly leaves its page alone)."""
+    target = docs_dir / path
+    if path in existing and target.stat().st_size == len(data) and target.read_bytes() == data:
+        return
+    target.parent.mkdir(parents=True, exist_ok=True)
+    target.write_bytes(data)
+
+
 def _write_sources(content: SiteContent, source_dir: Path) -> tuple[Path, list[str]]:
     """Bring ``source_dir/docs`` to ``content`` (and the static assets).
 
     Only files whose bytes change are written, so an unchanged file keeps its
     time stamp and an incremental assembly leaves its page alone; files no longer
-    generated are removed.  Returns the docs folder and the removed paths.
+    generated are removed.  A pair's bundle of files is read only when it is not
+    already there: the sources record each bundle's key and paths (``.atlas-bundles.json``,
+    written once every file is), and a bundle of the same key and paths whose files all
+    exist is left as it is.  Returns the docs folder and the removed paths.
     """
     docs_dir = source_dir / "docs"
     marker = source_dir / SOURCE_MARKER
@@ -109,20 +127,37 @@ def _write_sources(content: SiteContent, source_dir: Path) -> tuple[Path, list[s
     docs_dir.mkdir(parents=True, exist_ok=True)
     marker.write_text("Generated sources of 'atlas build'; replaced by the next build.\n",
                       encoding="utf-8")
+    record = source_dir / _BUNDLES
+    try:
+        written = json.loads(record.read_text(encoding="utf-8"))
+    except (OSError, ValueError):
+        written = {}
+    record.unlink(missing_ok=True)  # written back once every file below is in place
     wanted = _wanted(content)
     existing = {p.relative_to(docs_dir).as_posix() for p in docs_dir.rglob("*") if p.is_file()}
-    removed = sorted(existing - set(wanted))
+    every = set(wanted).union(*(b.paths for b in content.bundles.values()))
+    removed = sorted(existing - every)
     for path in removed:
         (docs_dir / path).unlink()
     for path, data in wanted.items():
-        target = docs_dir / path
-        if path in existing and target.stat().st_size == len(data) and target.read_bytes() == data:
+        _write_if_changed(docs_dir, path, data, existing)
+    for name, bundle in content.bundles.items():
+        if (bundle.key and written.get(name) == [bundle.key, list(bundle.paths)]
+                and existing.issuperset(bundle.paths)):
             continue
-        target.parent.mkdir(parents=True, exist_ok=True)
-        target.write_bytes(data)
+        files = bundle.read()
+        if sorted(path for path, _data in files) != sorted(bundle.paths):
+            raise AssembleError(f"the files of {name} are not those its entry lists: the "
+                                "build cache may have been changed during the build; run "
+                                "'atlas build --no-cache'")
+        for path, data in files:
+            _write_if_changed(docs_dir, path, data, existing)
     for folder in sorted((p for p in docs_dir.rglob("*") if p.is_dir()), reverse=True):
         if not any(folder.iterdir()):
             folder.rmdir()
+    record.write_text(json.dumps({name: [b.key, list(b.paths)]
+                                  for name, b in sorted(content.bundles.items())}),
+                      encoding="utf-8")
     return docs_dir, removed
 
 
@@ -166,6 +201,7 @@ def assemble(content: SiteContent, settings: SiteSettings, out_dir: Path, source
     from mkdocs.commands.build import build
     from mkdocs.config import load_config
 
+    from builder.site.page_memory import ReleasePageText
     from builder.site.raw_html import RawHtmlPassThrough
 
     collector = _Collect()
@@ -179,6 +215,7 @@ def assemble(content: SiteContent, settings: SiteSettings, out_dir: Path, source
     try:
         config = load_config(config_file=str(config_file), strict=strict)
         config.plugins["atlas-raw-html"] = RawHtmlPassThrough()
+        config.plugins["atlas-release-pages"] = ReleasePageText()
         build(config, dirty=incremental)
     except mkdocs_exceptions.MkDocsException as error:
         details = "; ".join(collector.messages)

@@ -33,6 +33,7 @@ form) on the progress channel, and its duration when it ends.
 
 from __future__ import annotations
 
+import functools
 import hashlib
 import shutil
 import time
@@ -43,7 +44,6 @@ from typing import Any
 
 from builder.analysis.catalogue_checks import failed_sets
 from builder.analysis.predicted import Unpredictable
-from builder.analysis.results import PairResults
 from builder.catalogue.loader import DEFAULT_CATALOGUE, load_catalogue
 from builder.errors import AtlasError
 from builder.site import DEFAULT_OUTPUT, TEMPLATES
@@ -54,10 +54,17 @@ from builder.site.assemble import (
     assemble,
     check_output_folder,
 )
-from builder.site.cache import BuildCache, code_version, component_key, default_cache_dir, pair_key
-from builder.site.content import generate
+from builder.site.cache import (
+    BuildCache,
+    FileDigests,
+    code_version,
+    component_key,
+    default_cache_dir,
+    pair_key,
+)
+from builder.site.content import Bundle, site_content
 from builder.site.executor import Executor, LocalExecutor, default_workers
-from builder.site.figures import Figure
+from builder.site.pair_entry import PairEntry
 from builder.site.predicted import select_predicted
 from builder.site.progress import Progress
 from builder.site.publish import publish, recover, staging_folder
@@ -65,7 +72,14 @@ from builder.site.search import search_documents, write_search_index
 from builder.site.settings import SiteSettings, load_settings
 from builder.site.verify import verify_site
 from builder.site.withheld import withheld_pairs
-from builder.site.work import PairFailure, component_task, pair_task, run_component, run_pair
+from builder.site.work import (
+    PairFailure,
+    PairOutput,
+    component_task,
+    pair_task,
+    run_component,
+    run_pair,
+)
 
 __all__ = ["DEFAULT_OUTPUT", "STAGE_MARKER", "BuildFailure", "BuildReport", "build_site"]
 
@@ -151,12 +165,17 @@ def _keep_source(source: Path, kept: Path) -> None:
 
 
 def _run_work(tasks: list[tuple[str, str, Any]], fn: Callable[[Any], Any], label: str,
-              executor: Executor, cache: BuildCache, quiet: bool) -> dict[str, Any]:
-    """Run the tasks ``(id, cache key, task)`` not in the cache; every output by id."""
+              executor: Executor, cache: BuildCache, quiet: bool,
+              with_files: bool = False) -> dict[str, Any]:
+    """Run the tasks ``(id, cache key, task)`` not in the cache; every output by id.
+
+    ``with_files``: the outputs carry files (a pair's :class:`~.work.PairOutput`), which
+    are stored apart in the cache and not returned (see :meth:`BuildCache.files`).
+    """
     outputs: dict[str, Any] = {}
     todo: list[tuple[str, str, Any]] = []
     for ident, key, task in tasks:
-        hit = cache.get(key)
+        hit = cache.get(key, with_files=with_files)
         if hit is not None:
             outputs[ident] = hit
         else:
@@ -169,7 +188,10 @@ def _run_work(tasks: list[tuple[str, str, Any]], fn: Callable[[Any], Any], label
                                    f"({output.code_version[:12]}, this is "
                                    f"{code_version()[:12]}): install the same version on every "
                                    "worker")
-            if not isinstance(output, PairFailure):  # a failure is retried by the next build
+            if isinstance(output, PairOutput):
+                cache.put(key, output.lean(), files=output.files)
+                output = output.lean()
+            elif not isinstance(output, PairFailure):  # a failure is retried by the next build
                 cache.put(key, output)
             outputs[ident] = output
             progress.step()
@@ -241,13 +263,15 @@ def build_site(catalogue_dir: Path | str = DEFAULT_CATALOGUE, out_dir: Path | st
                 "catalogue; skipped")
         work_catalogue = replace(catalogue, pairs={**catalogue.pairs, **selection.records})
         pair_ids, component_ids = sorted(work_catalogue.pairs), sorted(catalogue.components)
-        pair_keys = {pid: pair_key(work_catalogue, pid, settings) for pid in pair_ids}
-        component_keys = {cid: component_key(catalogue, cid, settings) for cid in component_ids}
+        digests = FileDigests()  # each input file read once for all the keys
+        pair_keys = {pid: pair_key(work_catalogue, pid, settings, digests) for pid in pair_ids}
+        component_keys = {cid: component_key(catalogue, cid, settings, digests)
+                          for cid in component_ids}
         pair_work = _run_work(
             [(pid, pair_keys[pid], pair_task(work_catalogue, pid, settings,
                                              predicted=pid in selection.records))
              for pid in pair_ids],
-            run_pair, "pairs", runner, cache, quiet_progress)
+            run_pair, "pairs", runner, cache, quiet_progress, with_files=True)
         component_work = _run_work(
             [(cid, component_keys[cid], component_task(catalogue, cid, settings))
              for cid in component_ids], run_component, "components", runner, cache,
@@ -288,14 +312,10 @@ def build_site(catalogue_dir: Path | str = DEFAULT_CATALOGUE, out_dir: Path | st
                     for pid, f in report.failed.items() if f.predicted),
                 key=lambda u: (u.component1, u.component2))))
     computed = [pid for pid in pair_ids if pid not in report.failed]
-    atlas: dict[str, PairResults] = {pid: pair_work[pid].results for pid in computed}
-    opinions = {pid: pair_work[pid].opinion for pid in computed
-                if pair_work[pid].opinion is not None}
-    pair_figs: dict[str, tuple[Figure, ...]] = {pid: pair_work[pid].figures for pid in computed}
-    pair_files = {pid: pair_work[pid].files for pid in computed}
+    entries: dict[str, PairEntry] = {pid: pair_work[pid].entry for pid in computed}
     comp_figs = {cid: component_work[cid].figure for cid in component_ids}
     del pair_work, component_work
-    failed = failed_sets(catalogue, atlas)
+    failed = failed_sets(catalogue, entries)
     if failed and allow_failed_checks:
         report.published_failing, failed = failed, {}
     # The same validation as `atlas check`: a set that fails its checks is withheld, and
@@ -306,20 +326,21 @@ def build_site(catalogue_dir: Path | str = DEFAULT_CATALOGUE, out_dir: Path | st
                                if pid in catalogue.pairs},
                               {pid: f.reason for pid, f in fitted_failed.items()})
     if report.withheld:
-        atlas = {pid: r for pid, r in atlas.items() if pid not in report.withheld}
-        pair_figs = {pid: f for pid, f in pair_figs.items() if pid not in report.withheld}
+        entries = {pid: e for pid, e in entries.items() if pid not in report.withheld}
         catalogue = replace(catalogue, pairs={pid: p for pid, p in catalogue.pairs.items()
                                               if pid not in report.withheld})
-    if not atlas:
+    if not entries:
         raise BuildFailure("no pair passes its checks; nothing to publish:\n" + "\n".join(
             f"  - {line}" for lines in report.withheld.values() for line in lines))
 
     t = start("render")
-    view, content = generate(settings, catalogue, atlas, pair_figs, comp_figs,
-                             opinions=opinions, selection=selection, withheld=withheld,
-                             pair_files=pair_files)
+    # Each pair's own files stay in the cache until the assembler writes them.
+    bundles = {pid: Bundle(pair_keys[pid], e.files, functools.partial(cache.files, pair_keys[pid]))
+               for pid, e in entries.items()}
+    view, content = site_content(settings, catalogue, entries, comp_figs,
+                                 selection=selection, withheld=withheld, bundles=bundles)
     methods = content.files.get("methods.md", b"").decode("utf-8")
-    del atlas, pair_figs, comp_figs, pair_files
+    del entries, comp_figs, bundles
     stage("render", t)
 
     t = start("assemble")

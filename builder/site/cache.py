@@ -10,7 +10,10 @@ builder never reuses stale work.  A component's figure is keyed the same way
 by its own file.
 
 Entries are pickles under ``<cache>/work/<k[:2]>/<key>.pickle``, written to a
-temporary name and renamed, so a killed build leaves no half-written entry.
+temporary name and renamed, so a killed build leaves no half-written entry.  A
+pair's own files (page, downloads, figures) are kept apart, in ``<key>.files``
+beside its entry and written before it, so that a build reads the small entry of
+every pair and the files only of those it writes (:mod:`.assemble`).
 The cache lives outside the published folder (by default ``.atlas-cache/``
 beside the output folder; git-ignored) and may be deleted at any time;
 ``atlas build --no-cache`` ignores what it holds.
@@ -31,7 +34,8 @@ from builder.catalogue.loader import Catalogue
 from builder.site import TEMPLATES
 from builder.site.settings import SiteSettings
 
-__all__ = ["BuildCache", "code_version", "component_key", "default_cache_dir", "pair_key"]
+__all__ = ["BuildCache", "FileDigests", "code_version", "component_key", "default_cache_dir",
+           "pair_key"]
 
 #: The builder package (every ``.py`` under it is part of the code version).
 _PACKAGE = Path(__file__).resolve().parent.parent
@@ -71,49 +75,82 @@ def _file_bytes(path: Path) -> bytes:
         return b"(missing)"
 
 
-def _hash(parts: list[tuple[str, bytes]]) -> str:
+class FileDigests:
+    """Files' SHA-256 digests, with the reference files they cite, read once per build.
+
+    Every pair's key hashes the group tables and the pair-page templates, and each
+    component's file is hashed for all its pairs: thousands of reads of the same files
+    at full size.  One build reads and hashes each file, and each set of files, once (a
+    new instance for every build, so that an edit between builds is always seen).
+    """
+
+    def __init__(self) -> None:
+        self._files: dict[str, tuple[bytes, frozenset[str]]] = {}
+        self._sets: dict[tuple[str, tuple[tuple[str, str], ...]], bytes] = {}
+
+    def _file(self, path: str) -> tuple[bytes, frozenset[str]]:
+        known = self._files.get(path)
+        if known is None:
+            data = _file_bytes(Path(path))
+            known = self._files[path] = (hashlib.sha256(data).digest(), frozenset(
+                _REF.findall(data.decode("utf-8", "replace"))))
+        return known
+
+    def of(self, root: Path, files: tuple[tuple[str, str], ...]) -> bytes:
+        """The digest of ``files`` (name, path) and of the reference files (under
+        ``root/references``) they cite (``ref: some-id``)."""
+        memo = (str(root), files)
+        known = self._sets.get(memo)
+        if known is None:
+            digest = hashlib.sha256()
+            cited: set[str] = set()
+            for name, path in files:
+                file_digest, refs = self._file(path)
+                cited |= refs
+                digest.update(name.encode() + b"\0" + file_digest)
+            for ref in sorted(cited):
+                path = os.path.join(root, "references", f"{ref}.yaml")
+                digest.update(f"references/{ref}".encode() + b"\0" + self._file(path)[0])
+            known = self._sets[memo] = digest.digest()
+        return known
+
+
+def _key(kind: str, settings: SiteSettings, root: Path,
+         *file_sets: tuple[tuple[str, str], ...], digests: FileDigests | None) -> str:
+    digests = digests or FileDigests()
     digest = hashlib.sha256()
-    for name, data in parts:
-        digest.update(name.encode())
-        digest.update(b"\0")
-        digest.update(hashlib.sha256(data).digest())
+    for name, data in (("kind", kind.encode()), ("code", code_version().encode()),
+                       ("settings", _settings_text(settings).encode())):
+        digest.update(name.encode() + b"\0" + hashlib.sha256(data).digest())
+    for files in file_sets:
+        digest.update(digests.of(root, files))
     return digest.hexdigest()
 
 
-def _with_references(catalogue: Catalogue, files: list[tuple[str, bytes]]
-                     ) -> list[tuple[str, bytes]]:
-    cited = sorted({ref for _name, data in files
-                    for ref in _REF.findall(data.decode("utf-8", "replace"))})
-    root = catalogue.root
-    return files + [(f"references/{ref}", _file_bytes(root / "references" / f"{ref}.yaml"))
-                    for ref in cited]
-
-
-def pair_key(catalogue: Catalogue, pair_id: str, settings: SiteSettings) -> str:
-    """The hash of everything a pair's results and figures depend on."""
+def pair_key(catalogue: Catalogue, pair_id: str, settings: SiteSettings,
+             digests: FileDigests | None = None) -> str:
+    """The hash of everything a pair's results and figures depend on (``digests``: the
+    build's file digests, each file read once)."""
     pair = catalogue.pairs[pair_id]
     root = catalogue.root
-    files = [(f"binaries/{pair_id}", _file_bytes(root / "binaries" / f"{pair_id}.yaml"))]
-    files += [(f"components/{cid}", _file_bytes(root / "components" / f"{cid}.yaml"))
-              for cid in (pair.component1, pair.component2)]
-    # The group tables: predicted pairs and the second opinion of fitted ones rest on them.
-    files += [(f"groups/{path.name}", _file_bytes(path))
-              for path in sorted((root / "groups").glob("*.yaml"))]
-    # The templates of the pair page, which the worker renders (.pair_page).
-    files += [(f"templates/{name}", _file_bytes(TEMPLATES / "pages" / name))
-              for name in PAIR_PAGE_TEMPLATES]
-    return _hash([("kind", b"pair"), ("code", code_version().encode()),
-                  ("settings", _settings_text(settings).encode()),
-                  *_with_references(catalogue, files)])
+    own = ((f"binaries/{pair_id}", str(root / "binaries" / f"{pair_id}.yaml")),
+           *((f"components/{cid}", str(root / "components" / f"{cid}.yaml"))
+             for cid in (pair.component1, pair.component2)))
+    # The group tables: predicted pairs and the second opinion of fitted ones rest on them;
+    # and the templates of the pair page, which the worker renders (.pair_files).
+    shared = (*((f"groups/{path.name}", str(path))
+                for path in sorted((root / "groups").glob("*.yaml"))),
+              *((f"templates/{name}", str(TEMPLATES / "pages" / name))
+                for name in PAIR_PAGE_TEMPLATES))
+    return _key("pair", settings, root, own, shared, digests=digests)
 
 
-def component_key(catalogue: Catalogue, component_id: str, settings: SiteSettings) -> str:
+def component_key(catalogue: Catalogue, component_id: str, settings: SiteSettings,
+                  digests: FileDigests | None = None) -> str:
     """The hash of everything a component's figure depends on."""
-    files = [(f"components/{component_id}",
-              _file_bytes(catalogue.root / "components" / f"{component_id}.yaml"))]
-    return _hash([("kind", b"component"), ("code", code_version().encode()),
-                  ("settings", _settings_text(settings).encode()),
-                  *_with_references(catalogue, files)])
+    root = catalogue.root
+    own = ((f"components/{component_id}", str(root / "components" / f"{component_id}.yaml")),)
+    return _key("component", settings, root, own, digests=digests)
 
 
 class BuildCache:
@@ -129,8 +166,10 @@ class BuildCache:
     def _path(self, key: str) -> Path:
         return self.root / "work" / key[:2] / f"{key}.pickle"
 
-    def get(self, key: str) -> Any | None:
-        if not self.read:
+    def get(self, key: str, *, with_files: bool = False) -> Any | None:
+        """The entry stored under ``key`` (None: not stored, unreadable, or -- with
+        ``with_files`` -- stored without its files)."""
+        if not self.read or (with_files and not self._path(key).with_suffix(".files").is_file()):
             self.misses += 1
             return None
         try:
@@ -142,14 +181,20 @@ class BuildCache:
         self.hits += 1
         return value
 
+    def files(self, key: str) -> Any:
+        """The files stored beside the entry of ``key`` (read whether or not this build
+        reads the cache: they are what this build stored)."""
+        with self._path(key).with_suffix(".files").open("rb") as handle:
+            return pickle.load(handle)
+
     def prune(self, keep: set[str]) -> int:
         """Delete stored work whose key is not in ``keep`` (after a build of the whole
         catalogue: what no current file needs); the number of entries deleted."""
         removed = 0
-        for path in (self.root / "work").glob("*/*.pickle"):
-            if path.stem not in keep:
+        for path in (self.root / "work").glob("*/*.*"):
+            if path.suffix in (".pickle", ".files") and path.stem not in keep:
                 path.unlink(missing_ok=True)
-                removed += 1
+                removed += path.suffix == ".pickle"
         return removed
 
     def load_memo(self, name: str) -> dict[str, Any]:
@@ -165,7 +210,10 @@ class BuildCache:
         memo["\0code"] = code_version()  # another version of the builder starts afresh
         self._write(self.root / f"{name}.pickle", memo)
 
-    def put(self, key: str, value: Any) -> None:
+    def put(self, key: str, value: Any, files: Any = None) -> None:
+        """Store ``value`` under ``key``, and ``files`` apart beside it (:meth:`files`)."""
+        if files is not None:
+            self._write(self._path(key).with_suffix(".files"), files)
         self._write(self._path(key), value)
 
     def _write(self, path: Path, value: Any) -> None:

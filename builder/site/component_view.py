@@ -4,9 +4,10 @@ from __future__ import annotations
 
 from collections.abc import Sequence
 from dataclasses import dataclass
+from typing import Protocol
 
 from builder.catalogue.loader import Catalogue
-from builder.catalogue.records import Component, PairRecord, Source
+from builder.catalogue.records import Component, Source
 from builder.site.display import Display, Row
 from builder.site.text import fmt, one_line, safe_id
 
@@ -52,8 +53,21 @@ def source_text(catalogue: Catalogue, source: Source | None) -> str:
     return one_line(catalogue.source_text(source)) if source else ""
 
 
+class PairOfComponents(Protocol):
+    """A pair as a component page lists it (a catalogue record or a build's pair entry)."""
+
+    @property
+    def id(self) -> str: ...
+
+    @property
+    def component1(self) -> str: ...
+
+    @property
+    def component2(self) -> str: ...
+
+
 def component_view(catalogue: Catalogue, component: Component, display: Display,
-               pairs: Sequence[PairRecord]) -> ComponentView:
+                   pairs: Sequence[PairOfComponents]) -> ComponentView:
     cid = safe_id(component.id)
     vp = component.vapour_pressure
     identity = (
@@ -107,7 +121,7 @@ def component_view(catalogue: Catalogue, component: Component, display: Display,
         boiling_value=display.T_value(component.normal_boiling_point_K))
 
 
-def pair_title(catalogue: Catalogue, pair: PairRecord) -> str:
+def pair_title(catalogue: Catalogue, pair: PairOfComponents) -> str:
     c1 = catalogue.components[pair.component1]
     c2 = catalogue.components[pair.component2]
     return f"{one_line(c1.name)} + {one_line(c2.name)}"

@@ -1,9 +1,11 @@
 """Page views: the computed results turned into display-ready, plain data.
 
-:func:`build_views` gathers every page's view before anything is rendered:
-component pages (:mod:`.component_view`), pair pages (:mod:`.pair_view`),
-the index rows (:mod:`.index_view`), with the behaviour classification of
-:mod:`.behaviour` and the unit formatting of :mod:`.display`.  Nothing here
+:func:`build_views` gathers the view of the atlas-wide pages before anything is
+rendered: component pages (:mod:`.component_view`) and one entry per pair
+(:mod:`.pair_entry`: its index row, :mod:`.index_view`, and what the other pages
+list), with the behaviour classification of :mod:`.behaviour` and the unit
+formatting of :mod:`.display`; a pair's own page is made from its view
+(:mod:`.pair_view`) in the worker that computed it (:mod:`.pair_files`).  Nothing here
 computes thermodynamics: every number is read from the results (one typed
 record, :mod:`builder.analysis.record`, whose every field exists; a section
 is left out where its field is ``None`` by its documented meaning) and the
@@ -16,13 +18,13 @@ from __future__ import annotations
 from collections.abc import Mapping
 from dataclasses import dataclass, field, replace
 
-from builder.analysis.results import PairResults
 from builder.catalogue.loader import Catalogue
 from builder.site.behaviour import BEHAVIOURS, behaviour, summary_condition
 from builder.site.component_view import ComponentView, component_view
 from builder.site.display import Display, Matrix, Row, matrix
 from builder.site.index_view import IndexRow
-from builder.site.pair_view import ConditionView, PairView, condition_slug, pair_view
+from builder.site.pair_entry import PairEntry
+from builder.site.pair_view import ConditionView, PairView, condition_slug
 from builder.site.settings import SiteSettings
 from builder.site.text import one_line
 
@@ -34,6 +36,7 @@ __all__ = [
     "Display",
     "IndexRow",
     "Matrix",
+    "PairEntry",
     "PairView",
     "Row",
     "behaviour",
@@ -46,10 +49,12 @@ __all__ = [
 
 @dataclass(frozen=True)
 class AtlasView:
-    """Everything the pages need, computed and formatted before anything is written."""
+    """Everything the atlas-wide pages need, computed and formatted before anything is
+    written: one :class:`~.pair_entry.PairEntry` per pair (its own page is made apart,
+    :mod:`.pair_files`), every component's view, the references and models."""
 
     settings: SiteSettings
-    pairs: tuple[PairView, ...]
+    pairs: tuple[PairEntry, ...]
     components: tuple[ComponentView, ...]
     references: tuple[tuple[str, str], ...]  # (id, citation)
     models: tuple[str, ...]
@@ -57,29 +62,23 @@ class AtlasView:
 
 
 def build_views(settings: SiteSettings, catalogue: Catalogue,
-                atlas: dict[str, PairResults],
-                made: Mapping[str, PairView] | None = None) -> AtlasView:
-    """Every page's data, from the catalogue and the computed results.
+                entries: Mapping[str, PairEntry]) -> AtlasView:
+    """The atlas-wide view, from the catalogue and the pairs' entries.
 
-    ``made`` holds pair views the workers built (:mod:`.pair_files`): each gets this
-    atlas's views of its two components (which list all their pairs); the other pair
-    views are built here.
+    Each entry gets this atlas's views of its two components (which list all their
+    pairs) in place of the worker's (which list that pair alone).
     """
-    made = made or {}
     display = Display(settings)
-    pairs = [atlas[pid].pair for pid in sorted(atlas)]
-    components = {cid: component_view(catalogue, catalogue.components[cid], display, pairs)
+    ordered = [entries[pid] for pid in sorted(entries)]
+    components = {cid: component_view(catalogue, catalogue.components[cid], display, ordered)
                   for cid in sorted(catalogue.components)}
-    pair_views = tuple(
-        replace(made[pid], c1=components[made[pid].c1.id], c2=components[made[pid].c2.id])
-        if pid in made else pair_view(catalogue, atlas[pid], components, display, settings)
-        for pid in sorted(atlas))
+    pairs = tuple(replace(e, c1=components[e.c1.id], c2=components[e.c2.id]) for e in ordered)
     cited = sorted(catalogue.references.items())
     return AtlasView(
-        settings=settings, pairs=pair_views,
+        settings=settings, pairs=pairs,
         components=tuple(components.values()),
         references=tuple((rid, one_line(ref.citation())) for rid, ref in cited),
-        models=tuple(sorted({r.pair.model.name for r in atlas.values()})),
+        models=tuple(sorted({e.model_name for e in ordered})),
         behaviours=tuple((k, v) for k, v in BEHAVIOURS.items()
-                         if any(p.behaviour == k for p in pair_views)),
+                         if any(p.behaviour == k for p in pairs)),
     )

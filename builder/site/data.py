@@ -18,17 +18,21 @@ import io
 import json
 import math
 from collections.abc import Iterable, Mapping
-from typing import Any
+from typing import TYPE_CHECKING, Any
 
 import numpy as np
 
 from builder.analysis.results import ConditionResult, PairResults
 from builder.catalogue.loader import Catalogue
 from builder.catalogue.records import Component
-from builder.site.context import AtlasView, PairView, behaviour, summary_condition
+from builder.site.behaviour import behaviour, summary_condition
+from builder.site.pair_view import PairView
 from builder.site.settings import SiteSettings
 from builder.site.text import safe_id
 from builder.thermo.vapour_pressure import Antoine, ExtendedAntoine
+
+if TYPE_CHECKING:  # the view imports the pair entries, which write with plain() of this module
+    from builder.site.context import AtlasView
 
 __all__ = ["FORMAT", "atlas_json", "condition_csvs", "pair_json", "plain"]
 
@@ -193,13 +197,20 @@ def pair_json(results: PairResults, view: PairView, settings: SiteSettings) -> d
     return data
 
 
-def atlas_json(view: AtlasView, catalogue: Catalogue, atlas: Mapping[str, PairResults],
-               pairs: Mapping[str, dict[str, Any]]) -> bytes:
-    """The machine-readable atlas: every pair's key results and every component."""
+#: Where the pairs' entries go in the text of ``atlas.json`` (see :func:`atlas_json`).
+_PAIRS_SLOT = "\0pairs\0"
+
+
+def atlas_json(view: AtlasView, catalogue: Catalogue) -> bytes:
+    """The machine-readable atlas: every pair's key results and every component.
+
+    Each pair's entry comes as the compact JSON its worker wrote
+    (:attr:`~.pair_entry.PairEntry.json`), one pair per line; the rest is indented.
+    """
     members: dict[str, list[str]] = {cid: [] for cid in catalogue.components}
-    for results in atlas.values():
-        members[results.pair.component1].append(results.pair.id)
-        members[results.pair.component2].append(results.pair.id)
+    for entry in view.pairs:
+        members[entry.component1].append(entry.id)
+        members[entry.component2].append(entry.id)
     data = {
         "format": FORMAT,
         "title": view.settings.title,
@@ -208,10 +219,14 @@ def atlas_json(view: AtlasView, catalogue: Catalogue, atlas: Mapping[str, PairRe
         "summary_pressure_Pa": view.settings.summary_pressure_Pa,
         "caution": "Screening only: design rests on measured data, local codes and licensed "
                    "engineering practice.",
-        "pairs": [pairs[pid] for pid in sorted(pairs)],
+        "pairs": _PAIRS_SLOT,
         "components": [_component(catalogue.components[cid], sorted(members[cid]))
                        for cid in sorted(catalogue.components)],
         "references": {rid: ref.citation() for rid, ref in sorted(catalogue.references.items())},
     }
-    return (json.dumps(plain(data), indent=1, ensure_ascii=False, allow_nan=False) + "\n"
-            ).encode("utf-8")
+    text = json.dumps(plain(data), indent=1, ensure_ascii=False, allow_nan=False)
+    pairs = ",\n".join(e.json for e in sorted(view.pairs, key=lambda e: e.id))
+    # The slot is the first string value after the title (the settings' own text), so the
+    # first match is it.
+    text = text.replace(json.dumps(_PAIRS_SLOT), f"[\n{pairs}\n ]" if pairs else "[]", 1)
+    return (text + "\n").encode("utf-8")

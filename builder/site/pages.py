@@ -22,7 +22,14 @@ import jinja2
 from markupsafe import Markup
 
 from builder.site import TEMPLATES
-from builder.site.context import BEHAVIOURS, AtlasView, ComponentView, Display, PairView
+from builder.site.context import (
+    BEHAVIOURS,
+    AtlasView,
+    ComponentView,
+    Display,
+    PairEntry,
+    PairView,
+)
 from builder.site.datasheet import datasheet
 from builder.site.figures import Figure
 from builder.site.matrix import behaviour_matrix, family_starts
@@ -71,29 +78,24 @@ def _relative(here: str) -> Any:
     return rel
 
 
-def render_pages(view: AtlasView, figures: Mapping[str, Sequence[Figure]],
-                 component_figures: Mapping[str, Figure], methods_context: Mapping[str, Any],
-                 partners: Partners | None = None,
-                 opinions: Mapping[str, OpinionView] | None = None,
+def render_pages(view: AtlasView, component_figures: Mapping[str, Figure],
+                 methods_context: Mapping[str, Any], partners: Partners | None = None,
                  predicted: Set[str] = frozenset(),
                  selection: PredictedSelection | None = None,
-                 withheld: Sequence[WithheldPair] = (),
-                 rendered: Mapping[str, str] | None = None) -> dict[str, str]:
-    """Every page: ``{site-relative .md path: Markdown text}``.
+                 withheld: Sequence[WithheldPair] = ()) -> dict[str, str]:
+    """Every page that reads the whole atlas: ``{site-relative .md path: Markdown text}``
+    (the pair pages are made with each pair's work, :mod:`.pair_files`).
 
     ``partners`` (:func:`.partners.partner_rows`) adds each component's partner table
-    and the behaviour matrix page; ``opinions`` the second opinion on fitted pair pages
-    and in the index; ``predicted`` names the pairs whose pages rest on a prediction and
-    ``selection`` adds the page listing the combinations that cannot be predicted;
-    ``withheld`` (:mod:`.withheld`) the notice of each withheld fitted pair, listed in the
-    index.  ``rendered`` holds pair pages already rendered by the workers (pair id ->
-    Markdown, :mod:`.pair_page`); the other pair pages are rendered here.
+    and the behaviour matrix page; ``predicted`` names the pairs whose pages rest on a
+    prediction and ``selection`` adds the page listing the combinations that cannot be
+    predicted; ``withheld`` (:mod:`.withheld`) the notice of each withheld fitted pair,
+    listed in the index.  The index shows each fitted pair's second opinion from its entry.
     """
-    rendered = rendered or {}
-    opinions = opinions or {}
     env = environment()
     at = Display(view.settings).P(view.settings.summary_pressure_Pa, 6)
     pages: dict[str, str] = {}
+    opinions = {p.id: p.opinion for p in view.pairs if p.opinion is not None}
 
     def render(template: str, path: str, **context: Any) -> None:
         pages[path] = env.get_template(template).render(
@@ -104,10 +106,6 @@ def render_pages(view: AtlasView, figures: Mapping[str, Sequence[Figure]],
     render("components.md.j2", "components/index.md")
     render("methods.md.j2", "methods.md", **methods_context)
     render("catalogue.md.j2", "catalogue.md")
-    for pair in view.pairs:
-        pages[pair.url] = (rendered[pair.id] if pair.id in rendered else
-                           pair_page(env, pair, figures.get(pair.id, ()), opinions.get(pair.id),
-                                     pair.id in predicted, view.settings))
     for w in withheld:
         render("withheld.md.j2", w.url, w=w)
     for component in view.components:
@@ -146,5 +144,5 @@ def _grouped(figures: Sequence[Figure]) -> dict[str, Any]:
     return {"condition": by_slug, **others}
 
 
-def _pairs_of(view: AtlasView, component: ComponentView) -> list[PairView]:
+def _pairs_of(view: AtlasView, component: ComponentView) -> list[PairEntry]:
     return [p for p in view.pairs if component.id in (p.c1.id, p.c2.id)]

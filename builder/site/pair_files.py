@@ -1,5 +1,6 @@
-"""A pair's own site files -- its page, its downloads and its view -- from that pair's work
-alone, so that the worker that computed the pair makes them.
+"""A pair's own site files -- its page, its downloads and its figures -- and its entry for
+the atlas-wide pages, from that pair's work alone, so that the worker that computed the
+pair makes them.
 
 A pair page (``pair.md.j2`` and the ``_macros.j2`` it imports), its CSV downloads
 and its JSON file read the pair's results, its two components, the references it
@@ -7,14 +8,14 @@ cites, its figures, its second opinion and the site settings -- nothing of any
 other pair: the page's links go to its two component pages, to its own figures
 and downloads and to pages every build has (methods, ``atlas.json``).  So
 :func:`pair_files` runs in the worker that computed and drew the pair
-(:mod:`.work`), in parallel and cached with the pair's output, and :func:`pair_downloads`
-is the one code path for the downloads in the worker and in the main process
-(:mod:`.content`), which keeps only the pages and files that need the whole atlas
-(index, components, matrix, lists, ``atlas.json``).
+(:mod:`.work`), in parallel and cached with the pair's output; the main process
+(:mod:`.content`) makes only the pages and files that need the whole atlas (index,
+components, matrix, lists, ``atlas.json``), from the pairs'
+:class:`~.pair_entry.PairEntry` records.
 
 The component views built here list this pair alone among the components' pairs;
 the pair page does not read that list, and the main process puts its own component
-views into the pair's view (:func:`builder.site.context.build_views`).  The cache
+views into the pair's entry (:func:`builder.site.context.build_views`).  The cache
 key of a pair (:func:`.cache.pair_key`) includes the two templates
 (:data:`builder.site.cache.PAIR_PAGE_TEMPLATES`).
 """
@@ -38,20 +39,28 @@ from builder.site.display import Display
 from builder.site.figures import Figure
 from builder.site.opinion import opinion_json, opinion_view
 from builder.site.pages import environment, pair_page
+from builder.site.pair_entry import PairEntry, pair_entry
 from builder.site.pair_view import PairView, pair_view
 from builder.site.settings import SiteSettings
 
-__all__ = ["PairFiles", "pair_downloads", "pair_files"]
+__all__ = ["Files", "PairFiles", "page_view", "pair_downloads", "pair_files"]
+
+
+#: Site files as ``(site-relative path, bytes)``.
+Files = tuple[tuple[str, bytes], ...]
 
 
 @dataclass(frozen=True)
 class PairFiles:
     """What the worker makes of one pair for the site."""
 
-    view: PairView  # its components list this pair alone (see the module's note)
-    page: str  # the pair page's Markdown
-    downloads: tuple[tuple[str, bytes], ...]  # (site-relative path, bytes): CSVs, JSON
-    data: dict[str, Any]  # the pair's entry of atlas.json
+    entry: PairEntry  # what the atlas-wide pages read of it (:mod:`.pair_entry`)
+    files: Files  # its page (Markdown), downloads (CSV, JSON) and figures (SVG)
+
+    @property
+    def page(self) -> str:
+        """The pair page's Markdown."""
+        return dict(self.files)[self.entry.url].decode("utf-8")
 
 
 def pair_downloads(results: PairResults, view: PairView, opinion: SecondOpinion | None,
@@ -77,18 +86,28 @@ def _environment() -> jinja2.Environment:
     return environment()
 
 
-def pair_files(catalogue: Catalogue, results: PairResults, figures: Sequence[Figure],
-               opinion: SecondOpinion | None, settings: SiteSettings,
-               predicted: bool) -> PairFiles:
-    """The page, downloads and view of ``results``' pair; ``catalogue`` holds the pair, its
-    two components and the references (a worker's slice of the catalogue is enough)."""
+def page_view(catalogue: Catalogue, results: PairResults, settings: SiteSettings) -> PairView:
+    """The view of ``results``' pair page; its component views list this pair alone."""
     display = Display(settings)
     pair = results.pair
     components = {cid: component_view(catalogue, catalogue.components[cid], display, [pair])
                   for cid in sorted({pair.component1, pair.component2})}
-    view = pair_view(catalogue, results, components, display, settings)
-    page = pair_page(_environment(), view, figures,
-                     opinion_view(opinion, display) if opinion is not None else None,
-                     predicted, settings)
+    return pair_view(catalogue, results, components, display, settings)
+
+
+def pair_files(catalogue: Catalogue, results: PairResults, figures: Sequence[Figure],
+               opinion: SecondOpinion | None, settings: SiteSettings,
+               predicted: bool) -> PairFiles:
+    """The page, downloads, figures and entry of ``results``' pair; ``catalogue`` holds the
+    pair's two components and the references (a worker's slice of the catalogue is
+    enough)."""
+    display = Display(settings)
+    view = page_view(catalogue, results, settings)
+    seen = opinion_view(opinion, display) if opinion is not None else None
+    page = pair_page(_environment(), view, figures, seen, predicted, settings)
     downloads, data = pair_downloads(results, view, opinion, settings)
-    return PairFiles(view, page, downloads, data)
+    files = ((view.url, page.encode("utf-8")), *downloads,
+             *((fig.path, fig.svg) for fig in figures))
+    entry = pair_entry(results, view, seen, data, tuple(path for path, _data in files),
+                       settings)
+    return PairFiles(entry, files)

@@ -7,8 +7,8 @@ component, the relative volatility of this component over the partner along the
 bubble line, and whether the pair page rests on a fitted (catalogued) set or on
 a prediction.  A combination without a page says why.
 
-The rows are read from the page views (:mod:`.context`) and the computed results
-(the α range); nothing here computes thermodynamics.  The component page prints
+The rows are read from the pairs' entries (:mod:`.pair_entry`); nothing here computes
+thermodynamics.  The component page prints
 them as a sortable, filterable table (:file:`component.md.j2`), and the behaviour
 matrix (:mod:`.matrix`) is drawn from the same rows.
 """
@@ -19,9 +19,8 @@ import math
 from collections.abc import Callable, Mapping, Sequence
 from dataclasses import dataclass
 
-from builder.analysis.results import PairResults
 from builder.catalogue.loader import Catalogue
-from builder.site.context import BEHAVIOURS, AtlasView, ComponentView, PairView, summary_condition
+from builder.site.context import BEHAVIOURS, AtlasView, ComponentView, PairEntry
 from builder.site.families import FAMILIES, family
 from builder.site.text import fmt
 
@@ -43,7 +42,7 @@ def no_fitted_set(_c1: str, _c2: str) -> str:
     return NOT_BUILT
 
 
-def is_predicted(pair: PairView, catalogue: Catalogue) -> bool:
+def is_predicted(pair: PairEntry, catalogue: Catalogue) -> bool:
     """Whether a pair page rests on a prediction (the pair is not a catalogue entry)."""
     return pair.id not in catalogue.pairs
 
@@ -78,21 +77,19 @@ class PartnerRow:
 Partners = Mapping[str, Sequence[PartnerRow]]
 
 
-def _alpha_of(component_is_first: bool, results: PairResults | None,
-              view: AtlasView) -> tuple[str, float]:
-    summary = summary_condition(results, view.settings) if results is not None else None
-    if summary is None:
+def _alpha_of(component_is_first: bool, pair: PairEntry) -> tuple[str, float]:
+    if pair.alpha_summary is None:
         return "—", math.nan
-    lo, hi = summary.volatility.alpha_min, summary.volatility.alpha_max
+    lo, hi = pair.alpha_summary
     if not component_is_first:  # α21 = 1 / α12
         lo, hi = 1.0 / hi, 1.0 / lo
     return f"{fmt(lo, 3)} – {fmt(hi, 3)}", lo
 
 
-def partner_rows(view: AtlasView, catalogue: Catalogue, atlas: Mapping[str, PairResults],
+def partner_rows(view: AtlasView, catalogue: Catalogue,
                  reason: Reason = no_fitted_set) -> dict[str, tuple[PartnerRow, ...]]:
     """Every component's partner rows, partners ordered by family and boiling point."""
-    by_ids: dict[frozenset[str], PairView] = {frozenset((p.c1.id, p.c2.id)): p
+    by_ids: dict[frozenset[str], PairEntry] = {frozenset((p.c1.id, p.c2.id)): p
                                               for p in view.pairs}
     families = {c.id: family(catalogue.components[c.id]) for c in view.components}
     order = {key: i for i, key in enumerate(FAMILIES)}
@@ -120,7 +117,7 @@ def partner_rows(view: AtlasView, catalogue: Catalogue, atlas: Mapping[str, Pair
             x = r.azeotrope_x1_sort
             if not first and math.isfinite(x):
                 x = 1.0 - x
-            alpha, alpha_sort = _alpha_of(first, atlas.get(pair.id), view)
+            alpha, alpha_sort = _alpha_of(first, pair)
             predicted = is_predicted(pair, catalogue)
             rows.append(PartnerRow(
                 partner=other, family=fam, family_label=FAMILIES[fam], pair_url=pair.url,

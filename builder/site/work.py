@@ -17,15 +17,16 @@ next build tries the pair again.
 from __future__ import annotations
 
 import traceback
-from dataclasses import dataclass
+from dataclasses import dataclass, replace
 from pathlib import Path
 
-from builder.analysis.results import PairResults, compute_pair
-from builder.analysis.second_opinion import SecondOpinion, second_opinion
+from builder.analysis.results import compute_pair
+from builder.analysis.second_opinion import second_opinion
 from builder.catalogue.loader import Catalogue
 from builder.site.cache import code_version
 from builder.site.figures import Figure, component_figure, pair_figures
-from builder.site.pair_files import PairFiles, pair_files
+from builder.site.pair_entry import PairEntry
+from builder.site.pair_files import Files, pair_files
 from builder.site.predicted_figures import predicted_figure
 from builder.site.settings import SiteSettings
 
@@ -46,11 +47,20 @@ class PairTask:
 
 @dataclass(frozen=True)
 class PairOutput:
-    results: PairResults
-    figures: tuple[Figure, ...]
-    opinion: SecondOpinion | None  # the predictive model beside a fitted pair
+    """One pair's work: its entry for the atlas-wide pages and its own files.
+
+    The build keeps the files apart (in the cache, :meth:`~.cache.BuildCache.put`) and
+    holds only the entry (:meth:`lean`); the assembler reads the files when it writes
+    them.
+    """
+
+    entry: PairEntry
     code_version: str
-    files: PairFiles  # its page, downloads and view (:mod:`.pair_files`)
+    files: Files = ()  # its page, downloads and figures (:mod:`.pair_files`)
+
+    def lean(self) -> PairOutput:
+        """This output without its files."""
+        return replace(self, files=())
 
 
 @dataclass(frozen=True)
@@ -135,9 +145,9 @@ def _compute_and_draw(task: PairTask) -> PairOutput:
         opinion = (second_opinion(task.catalogue, results, task.settings.summary_pressure_Pa)
                    if task.settings.second_opinion else None)
         figures = pair_figures(results, task.settings, opinion)
-    files = pair_files(task.catalogue, results, figures, opinion, task.settings,
-                       task.predicted)
-    return PairOutput(results, figures, opinion, code_version(), files)
+    made = pair_files(task.catalogue, results, figures, opinion, task.settings,
+                      task.predicted)
+    return PairOutput(made.entry, code_version(), made.files)
 
 
 def run_component(task: ComponentTask) -> ComponentOutput:
