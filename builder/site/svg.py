@@ -94,11 +94,12 @@ def _tokens(d: str) -> list[str]:
 def _path(d: str) -> str:
     tokens = _tokens(d)
     out: list[str] = []
-    run: list[tuple[float, float]] = []  # a polyline: M then L ... L
+    run: list[tuple[float, float]] = []  # a polyline: M (or L after a curve) then L ... L
+    opens = ["M"]  # the command of the run's first point
 
     def flush() -> None:
         for k, (x, y) in enumerate(_simplify(run)):
-            out.append(f"{'M' if k == 0 else 'L'}{_fmt(x)} {_fmt(y)}")
+            out.append(f"{opens[0] if k == 0 else 'L'}{_fmt(x)} {_fmt(y)}")
         run.clear()
 
     i = 0
@@ -108,6 +109,8 @@ def _path(d: str) -> str:
         if (command == "M" or command == "L") and i + 2 < count:
             if command == "M":
                 flush()
+            if not run:  # a line after a curve stays a line, not a move
+                opens[0] = command
             run.append((float(tokens[i + 1]), float(tokens[i + 2])))
             i += 3
             continue
