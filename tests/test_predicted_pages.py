@@ -126,3 +126,20 @@ def test_summary_states_the_volatility_of_the_lighter_component(catalogue: Catal
     facts = dict((row.label, row.value) for row in pair.summary)
     (alpha,) = [value for label, value in facts.items() if label.startswith("Relative vol")]
     assert f"α21 = 1/α12 from {low:.3g} to {high:.3g}" in alpha
+
+
+def test_a_predicted_liquid_split_carries_its_caution(catalogue: Catalogue) -> None:
+    # n-Heptane and water are almost immiscible (common practice): the prediction shows
+    # two liquids and says how far to trust a predicted split; toluene + n-heptane mix
+    # (common practice), and a fitted pair's own split (water + 1-butanol) is not a
+    # prediction.
+    selection = select_predicted(catalogue, ("n-heptane", "toluene", "water"))
+    work = dataclasses.replace(catalogue, pairs={**catalogue.pairs, **selection.records})
+    caution = "predicted by a group-contribution model"
+    split = compute_pair(work, work.pairs["n-heptane--water"])
+    assert not all(c.liquid_stable.all() for c in split.conditions)
+    assert any(caution in w for w in split.warnings)
+    mixed = compute_pair(work, work.pairs["n-heptane--toluene"])
+    assert not any(caution in w for w in mixed.warnings)
+    fitted = compute_pair(catalogue, catalogue.pairs["water--1-butanol"])
+    assert not any(caution in w for w in fitted.warnings)

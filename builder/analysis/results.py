@@ -182,6 +182,19 @@ def acid_vapour_warnings(c1: Component, c2: Component, vapour_model: str) -> tup
                  for c in (c1, c2) if _is_acid(c))
 
 
+def predicted_split_warnings(pair: PairRecord,
+                             conditions: tuple[ConditionResult, ...]) -> tuple[str, ...]:
+    """A warning when a predicted pair (no fitted set) shows two liquids: the group
+    contribution's parameters were fitted to vapour-liquid data, and they place liquid-liquid
+    splits poorly -- too wide, too narrow, or where the liquids mix (common practice)."""
+    if pair.quality != "predicted" or all(bool(np.all(c.liquid_stable)) for c in conditions):
+        return ()
+    return ("The two-liquid region shown is predicted by a group-contribution model whose "
+            "parameters were fitted to vapour-liquid data; such predictions of liquid-liquid "
+            "splits are often wrong in extent and sometimes show a split where the liquids "
+            "mix. Check the mutual solubilities against measured data before relying on it.",)
+
+
 def compute_pair(catalogue: Catalogue, pair: PairRecord) -> PairResults:
     """Compute every published condition of ``pair``, the azeotrope's movement with
     pressure and the reference checks."""
@@ -196,6 +209,7 @@ def compute_pair(catalogue: Catalogue, pair: PairRecord) -> PairResults:
     c1, c2 = catalogue.components[pair.component1], catalogue.components[pair.component2]
     first = (isobars + isotherms)[0] if isobars or isotherms else None
     warnings = acid_vapour_warnings(c1, c2, first.curve.vapour_model) if first else ()
+    warnings += predicted_split_warnings(pair, isobars + isotherms)
     computed = PairResults(
         pair=pair, component1=c1, component2=c2, isobars=isobars, isotherms=isotherms,
         warnings=warnings, trace=trace, checks=(),

@@ -35,6 +35,7 @@ from __future__ import annotations
 
 import functools
 import hashlib
+import os
 import shutil
 import time
 from collections.abc import Callable, Iterable
@@ -64,10 +65,11 @@ from builder.site.cache import (
 )
 from builder.site.content import Bundle, site_content
 from builder.site.executor import Executor, LocalExecutor, default_workers
+from builder.site.mirror import mirror
 from builder.site.pair_entry import PairEntry
 from builder.site.predicted import select_predicted
 from builder.site.progress import Progress
-from builder.site.publish import publish, recover, staging_folder
+from builder.site.publish import publish, recover, same_file_system, staging_folder
 from builder.site.search import search_documents, write_search_index
 from builder.site.settings import SiteSettings, load_settings
 from builder.site.verify import verify_site
@@ -363,7 +365,16 @@ def build_site(catalogue_dir: Path | str = DEFAULT_CATALOGUE, out_dir: Path | st
             raise
         if source_dir is not None:
             _keep_source(assembly / "source", Path(source_dir))
-        shutil.copytree(html_dir, staging)
+        # The site the last build replaced, kept in the cache: brought up to date by
+        # copying what changed, it is the staging copy (else a full copy is made).
+        kept = cache_root / "replaced-site"
+        keep = kept if same_file_system(cache_root, out.parent) else None
+        if use_cache and keep is not None and (kept / MARKER).is_file():
+            os.rename(kept, staging)
+            mirror(html_dir, staging)
+        else:
+            shutil.rmtree(kept, ignore_errors=True)
+            shutil.copytree(html_dir, staging)
         stage("assemble", t)
 
         t = start("verify")
@@ -383,7 +394,7 @@ def build_site(catalogue_dir: Path | str = DEFAULT_CATALOGUE, out_dir: Path | st
                                + (f"\n  ... and {more} more" if more > 0 else ""))
 
         t = start("publish")
-        publish(staging, out)
+        publish(staging, out, keep)
         stage("publish", t)
     finally:
         if staging.exists():
