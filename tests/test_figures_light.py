@@ -55,13 +55,16 @@ def _text_figure(light: bool) -> MplFigure:
     return fig
 
 
-def test_light_text_writes_what_matplotlib_writes() -> None:
+@pytest.mark.parametrize("fonttype", ["none", "path"])
+def test_light_text_writes_what_matplotlib_writes(fonttype: str) -> None:
     """Every alignment, rotations 0, 90 and 30 degrees in both rotation modes, bold,
-    italic, transparent, titles and axis labels: the same SVG bytes as matplotlib's."""
-    with matplotlib.rc_context(STYLE):  # type: ignore[arg-type]
+    italic, transparent, titles and axis labels, text kept as text or drawn as outlines:
+    the same SVG bytes as matplotlib's."""
+    with matplotlib.rc_context({**STYLE, "svg.fonttype": fonttype}):  # type: ignore[arg-type]
         reference = raw_svg(_text_figure(light=False))
         light = raw_svg(_text_figure(light=True))
     assert b"center_baseline" in reference
+    assert (b"<text" in reference) == (fonttype == "none")
     assert light == reference
 
 

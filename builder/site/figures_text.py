@@ -20,6 +20,7 @@ from __future__ import annotations
 import math
 from typing import Any
 
+import matplotlib as mpl
 import numpy as np
 from matplotlib import colors as mcolors
 from matplotlib.axes import Axes
@@ -140,11 +141,12 @@ def draw_text(text: Text, renderer: Any) -> None:
         y_draw = renderer.get_canvas_width_height()[1] - y_draw
     angle = text.get_rotation()
     write = getattr(renderer, "write_text_line", None)
-    if (write is not None and text.get_url() is None
+    if (write is not None and text.get_url() is None and mpl.rcParams["svg.fonttype"] == "none"
             and (angle == 0 or text.get_rotation_mode() == "anchor")
             and not (text.get_clip_on() and (text.get_clip_box() is not None
                                              or text.get_clip_path() is not None))):
-        # What the SVG renderer's draw_text writes for such a text, without its drawing state.
+        # What the SVG renderer's draw_text writes for such a text (text kept as text),
+        # without its drawing state.
         write(s, prop, text.get_color(), text.get_alpha(), text.get_horizontalalignment(),
               (x_draw, y_draw), (posx, posy), angle)
         renderer.close_group("text")
