@@ -12,8 +12,9 @@ azeotrope traced against pressure and the reference checks.  Two runs:
 Each pair is computed ``--repeat`` times (after one warm-up); its time is the median of
 those.  Printed: the median and 90th percentile over pairs, both as elapsed time and as
 processor time of this process (the latter is less disturbed by other work on a busy
-machine), the slowest pairs, and the peak traced memory of one pass over the catalogue.
-Run: ``python benchmarks/analysis.py [--repeat N]``.
+machine), the slowest pairs, each Peng–Robinson (φ–φ) pair (the slowest kind: mixture
+critical points), every pair with ``--per-pair``, and the peak traced memory of one pass
+over the catalogue.  Run: ``python benchmarks/analysis.py [--repeat N] [--per-pair]``.
 """
 
 from __future__ import annotations
@@ -68,6 +69,8 @@ def summary(name: str, times: dict[str, tuple[float, float]]) -> None:
 def main() -> None:
     parser = argparse.ArgumentParser(description=__doc__.splitlines()[0])
     parser.add_argument("--repeat", type=int, default=3, help="runs per pair (median)")
+    parser.add_argument("--per-pair", action="store_true",
+                        help="also print every pair's processor time")
     args = parser.parse_args()
     start = time.perf_counter()
     catalogue = load_catalogue()
@@ -95,6 +98,17 @@ def main() -> None:
     print("slowest pairs, all conditions (wall / cpu ms):")
     for pid, (wall, cpu) in sorted(full.items(), key=lambda kv: -kv[1][1])[:5]:
         print(f"  {pid:<40}{wall * 1e3:>8.0f}{cpu * 1e3:>8.0f}")
+    cubic = [pid for pid, pair in pairs.items() if pair.model_kind == "peng-robinson"]
+    if cubic:
+        print("Peng-Robinson (phi-phi) pairs (wall / cpu ms: all conditions, one isobar):")
+        for pid in cubic:
+            (wall, cpu), (wall1, cpu1) = full[pid], single[pid]
+            print(f"  {pid:<40}{wall * 1e3:>8.0f}{cpu * 1e3:>8.0f}"
+                  f"{wall1 * 1e3:>10.0f}{cpu1 * 1e3:>8.0f}")
+    if args.per_pair:
+        print("every pair, all conditions (cpu ms), fastest first:")
+        for pid, (_, cpu) in sorted(full.items(), key=lambda kv: kv[1][1]):
+            print(f"  {pid:<40}{cpu * 1e3:>8.1f}")
 
 
 if __name__ == "__main__":

@@ -296,12 +296,15 @@ _COOLPROP_PAIRS = {
     "n-hexane--n-heptane": (3.0e4, 101325.0, 3.0e5),
 }
 _MISSES_HALF_A_KELVIN = {
-    "propane--n-butane": "with the DECHEMA k12 (0.0033) 0.51-0.65 K low at 1-2 MPa: 0.1-0.4 K of "
-                         "it is Peng-Robinson's own vapour pressure of n-butane and propane, low "
-                         "there; published alternative alpha functions do not remove it",
-    "ethane--propane": "with the DECHEMA k12 (0.0011) up to 0.85 K low near the middle of the "
-                       "composition range; the pure ends are within 0.32 K, so the rest is the "
-                       "one-fluid mixing rule with this k12",
+    "propane--n-butane": "with the published k12 (0.0033) 0.51, 0.60, 0.65 K low at 1, 1.5, 2 "
+                         "MPa; with pure-fluid vapour pressures made exact it would be 0.43 K: "
+                         "what takes it past 0.5 K is Peng-Robinson's own vapour pressures "
+                         "(n-butane 0.13-0.42 K low); no published alpha function tried "
+                         "passes it without breaking another pair (docs/cubic-accuracy.md)",
+    "ethane--propane": "with the published k12 (0.0011) up to 0.85 K low at x1 = 0.5; with "
+                       "pure-fluid vapour pressures made exact still 0.55-0.71 K (0.46-0.61 K "
+                       "with k12 = 0): the mixing rule would need a negative k12 (about -0.002 "
+                       "to -0.004) that no published table gives (docs/cubic-accuracy.md)",
     "n-hexane--n-heptane": "the catalogue's ideal-solution liquid: CoolProp's mixture shows a "
                            "slight positive deviation from Raoult's law, bubble and dew points "
                            "up to 0.54 K lower mid-range; the pure ends agree within 0.1 K",

@@ -34,13 +34,16 @@ from matplotlib.figure import Figure as MplFigure
 from matplotlib.lines import Line2D
 from matplotlib.patches import Patch
 from matplotlib.ticker import FuncFormatter
+from matplotlib.transforms import ScaledTranslation
 from numpy.typing import NDArray
 
 from builder.analysis.results import ConditionResult, PairResults
 from builder.analysis.second_opinion import SecondOpinion
 from builder.catalogue.records import Component
 from builder.site.context import Display, condition_slug
-from builder.site.figures_canvas import Kept, svg_bytes
+from builder.site.figures_canvas import Kept, plot_line, svg_bytes
+from builder.site.figures_legend import LightLegend
+from builder.site.figures_text import LightText
 from builder.site.opinion_figures import Overlay, TraceOverlay, trace_overlay, txy_overlay
 from builder.site.settings import SiteSettings
 from builder.site.text import fmt, mpl_text, one_line, safe_id
@@ -140,19 +143,19 @@ def _legend_below(fig: MplFigure, ax: Axes, handles: Sequence[Line2D | Patch],
     fig.set_size_inches(width, height + extra)
     _margins(fig, left=left, bottom=0.48 + extra, top=top, wspace=wspace)
     # From near the figure's left edge, so that two columns of labels have its whole width.
-    ax.legend(handles=handles, loc="upper left",
-              bbox_to_anchor=(-(left - 0.12) / axes_width, -0.44 / axes_height),
-              ncol=ncol, frameon=False, borderaxespad=0.0, handlelength=2.4,
-              columnspacing=1.4, fontsize=7.5)
+    ax.add_artist(LightLegend(handles, loc="upper left", transform=ax.transAxes,
+                              anchor=(-(left - 0.12) / axes_width, -0.44 / axes_height),
+                              ncol=ncol, border_pad=0.0, handlelength=2.4,
+                              columnspacing=1.4, fontsize=7.5))
 
 
 def _titles(ax: Axes, title: str, names: str = "") -> None:
     """A bold title and, above the axes under it, the pair or component it shows."""
     ax.set_title(title, loc="left", pad=15 if names else 6)
     if names:
-        ax.annotate(names, xy=(0.0, 1.0), xycoords="axes fraction", xytext=(0, 4),
-                    textcoords="offset points", va="bottom", ha="left", fontsize=8,
-                    color="#3a444c")
+        ax.add_artist(LightText(0.0, 1.0, names, va="bottom", ha="left", fontsize=8,
+                                color="#3a444c", clip_on=False, transform=ax.transAxes
+                                + ScaledTranslation(0, 4 / 72, ax.figure.dpi_scale_trans)))
 
 
 def _plain_log(axis: Any) -> None:
@@ -205,18 +208,18 @@ def _draw(ax: Axes, x: FloatArray, y: FloatArray, usable: BoolArray, extrapolate
         seg_ex = extrapolated[start:stop]
         for a, b in _runs(~seg_ex):
             lo, hi = start + a, start + b
-            ax.plot(x[lo:hi], y[lo:hi], color=colour, linewidth=lw, linestyle="-",
-                    solid_capstyle="butt", zorder=3)
+            plot_line(ax, x[lo:hi], y[lo:hi], color=colour, linewidth=lw, linestyle="-",
+                      solid_capstyle="butt", zorder=3)
         for a, b in _runs(seg_ex):
             lo, hi = max(start + a - 1, start), min(start + b + 1, stop)  # joins both ends
-            ax.plot(x[lo:hi], y[lo:hi], color=colour, linewidth=lw, linestyle=(0, (4.0, 2.2)),
-                    zorder=3)
+            plot_line(ax, x[lo:hi], y[lo:hi], color=colour, linewidth=lw,
+                      linestyle=(0, (4.0, 2.2)), zorder=3)
             dashed.append((lo, hi))
     marks = _mark_indices(x if along is None else along, ok)
     if marks:
-        ax.plot(x[marks], y[marks], linestyle="none", marker=marker, color=colour,
-                markerfacecolor="white" if open_marker else colour, markeredgewidth=1.1,
-                zorder=4)
+        plot_line(ax, x[marks], y[marks], linestyle="none", marker=marker, color=colour,
+                  markerfacecolor="white" if open_marker else colour, markeredgewidth=1.1,
+                  zorder=4)
     return dashed
 
 
@@ -249,8 +252,8 @@ def _composition_axis(ax: Axes, name1: str, what: str = "x1 (liquid), y1 (vapour
 
 def _azeotrope_marks(ax: Axes, points: Sequence[tuple[float, float]]) -> None:
     for x, y in points:
-        ax.plot([x], [y], marker="*", markersize=12, color="black", markeredgecolor="white",
-                markeredgewidth=0.6, linestyle="none", zorder=7)
+        plot_line(ax, [x], [y], marker="*", markersize=12, color="black",
+                  markeredgecolor="white", markeredgewidth=0.6, linestyle="none", zorder=7)
 
 
 def _hetero_mask(result: ConditionResult) -> BoolArray:
@@ -290,10 +293,10 @@ def _diagram(results: PairResults, result: ConditionResult, display: Display,
         xa, xb = three.x1_a, three.x1_b
         level = (display.T_value(three.T_K) if isobar
                  else three.P_Pa / display.settings.pressure_factor)
-        ax.plot([xa, xb], [level, level], color="#4b4b4b", linewidth=3.2,
-                solid_capstyle="butt", zorder=5)
-        ax.plot([three.y1], [level], marker="o", markersize=5, color="white",
-                markeredgecolor="#4b4b4b", markeredgewidth=1.4, linestyle="none", zorder=6)
+        plot_line(ax, [xa, xb], [level, level], color="#4b4b4b", linewidth=3.2,
+                  solid_capstyle="butt", zorder=5)
+        plot_line(ax, [three.y1], [level], marker="o", markersize=5, color="white",
+                  markeredgecolor="#4b4b4b", markeredgewidth=1.4, linestyle="none", zorder=6)
         handles.append(Line2D([], [], color="#4b4b4b", linewidth=3.2,
                               label="three-phase line"))
         notes.append(f"a three-phase line from x1 = {fmt(xa, 3)} to {fmt(xb, 3)}")
@@ -311,8 +314,8 @@ def _diagram(results: PairResults, result: ConditionResult, display: Display,
     if critical is not None:
         level = (display.T_value(critical.T_K) if isobar
                  else critical.P_Pa / display.settings.pressure_factor)
-        ax.plot([critical.x1], [float(level)], marker="D", markersize=7, color="white",
-                markeredgecolor="black", markeredgewidth=1.4, linestyle="none", zorder=7)
+        plot_line(ax, [critical.x1], [float(level)], marker="D", markersize=7, color="white",
+                  markeredgecolor="black", markeredgewidth=1.4, linestyle="none", zorder=7)
         where = display.T(critical.T_K) if isobar else display.P(critical.P_Pa)
         handles.append(Line2D([], [], marker="D", markersize=7, color="white",
                               markeredgecolor="black", linestyle="none",
@@ -364,7 +367,7 @@ def _styles(count: int) -> list[tuple[str, str]]:
 def _xy(results: PairResults, display: Display, folder: str) -> Figure:
     n1, n2 = results.component1.name, results.component2.name
     fig, ax = _new("xy", (4.4, 3.9))
-    ax.plot([0, 1], [0, 1], color=GREY, linewidth=0.9, linestyle=(0, (1, 2)), zorder=2)
+    plot_line(ax, [0, 1], [0, 1], color=GREY, linewidth=0.9, linestyle=(0, (1, 2)), zorder=2)
     handles = [Line2D([], [], color=GREY, linewidth=0.9, linestyle=(0, (1, 2)),
                       label="diagonal")]
     any_dashed = False
@@ -378,11 +381,11 @@ def _xy(results: PairResults, display: Display, folder: str) -> Figure:
         any_dashed |= bool(dashed)
         three = result.three_phase
         if three is not None:
-            ax.plot([three.x1_a, three.x1_b], [three.y1, three.y1], color=colour,
-                    linewidth=2.6, solid_capstyle="butt", zorder=3)
+            plot_line(ax, [three.x1_a, three.x1_b], [three.y1, three.y1], color=colour,
+                      linewidth=2.6, solid_capstyle="butt", zorder=3)
         for a in result.azeotropes:
-            ax.plot([a.x1], [a.x1], marker="*", markersize=10, color="black",
-                    markeredgecolor="white", markeredgewidth=0.5, linestyle="none", zorder=6)
+            plot_line(ax, [a.x1], [a.x1], marker="*", markersize=10, color="black",
+                      markeredgecolor="white", markeredgewidth=0.5, linestyle="none", zorder=6)
         cond = display.condition(result)
         labels.append(cond)
         handles.append(Line2D([], [], color=colour, marker=marker, label=cond))
@@ -581,8 +584,8 @@ def component_figure(component: Component, settings: SiteSettings) -> Figure:
                           label="vapour pressure (correlation)"),
                    Patch(color="#e8f0f7", label="validity range")]
         if lo - margin <= Tb <= hi + margin:
-            ax.plot([display.T_value(Tb)], [101325.0 / settings.pressure_factor], marker="D",
-                    color="black", markersize=5, linestyle="none", zorder=6)
+            plot_line(ax, [display.T_value(Tb)], [101325.0 / settings.pressure_factor],
+                      marker="D", color="black", markersize=5, linestyle="none", zorder=6)
             handles.append(Line2D([], [], marker="D", color="black", linestyle="none",
                                   markersize=5, label="normal boiling point"))
         if dashed:

@@ -33,6 +33,8 @@ from matplotlib.textpath import TextToPath
 from matplotlib.ticker import NullLocator
 from matplotlib.transforms import ScaledTranslation
 
+from builder.site.figures_text import draw_text
+
 __all__ = ["light_axes", "text_size_pt"]
 
 _TEXT = TextToPath()
@@ -63,24 +65,40 @@ def text_size_pt(text: str, size_pt: float) -> tuple[float, float]:
     return _text_size(text, float(size_pt), family)
 
 
-class _Labels(Artist):
-    """Tick labels drawn together: one artist on the axes instead of one per label
-    (adding an artist to axes costs more than making it)."""
+#: One group of tick labels: the text that draws them and their places and words.
+_Group = tuple[Text, list[tuple[float, float, str]]]
 
-    def __init__(self, ax: Axes, texts: list[Text]) -> None:
+
+class _AxisArtists(Artist):
+    """An axis' tick marks, grid and tick labels drawn together, in the order given: one
+    artist on the axes instead of several (adding an artist to axes costs more than
+    making it).  Each group of labels is drawn with one text whose words and place change
+    from label to label (making a text costs more than drawing it)."""
+
+    def __init__(self, ax: Axes, parts: list[Line2D | _Group]) -> None:
         super().__init__()
-        self._texts = texts
+        self._parts = parts
         self.set_zorder(1.5)
-        for text in texts:
-            text.set_figure(ax.figure)
+        for part in parts:
+            artist = part if isinstance(part, Line2D) else part[0]
+            artist.set_figure(ax.figure)
+            artist.axes = ax
 
     def get_children(self) -> list[Artist]:
-        return list(self._texts)
+        return [part if isinstance(part, Line2D) else part[0] for part in self._parts]
 
     def draw(self, renderer: Any) -> None:
-        if self.get_visible():
-            for text in self._texts:
-                text.draw(renderer)
+        if not self.get_visible():
+            return
+        for part in self._parts:
+            if isinstance(part, Line2D):
+                part.draw(renderer)
+                continue
+            text, labels = part
+            for x, y, label in labels:
+                text.set_text(label)
+                text.set_position((x, y))
+                draw_text(text, renderer)
 
 
 def _ticks(axis: Axis, minor: bool) -> tuple[list[float], list[str]]:
@@ -109,7 +127,8 @@ def _draw_axis(ax: Axes, axis: Axis, which: str) -> Callable[[], None]:
     if label_colour == "inherit":
         label_colour = colour
     reach = 0.0  # how far the tick labels reach from the axes (points)
-    texts: list[Text] = []
+    parts: list[Line2D | _Group] = []  # drawn in this order
+    groups: list[_Group] = []  # drawn after the marks and grid
     for minor in (False, True):
         if minor and isinstance(axis.get_minor_locator(), NullLocator):
             continue  # a linear axis: no minor ticks (and no need to ask)
@@ -136,15 +155,18 @@ def _draw_axis(ax: Axes, axis: Axis, which: str) -> Callable[[], None]:
         marks.set(color=colour, markersize=size,
                   markeredgewidth=float(rc[f"{which}tick.{kind}.width"]), clip_on=False,
                   zorder=1.5)
-        ax.add_artist(marks)
+        parts.append(marks)
+        placed: list[tuple[float, float, str]] = []
         for loc, label in zip(locs, labels, strict=True):
             if not label:
                 continue
-            xy = (loc, 0.0) if which == "x" else (0.0, loc)
-            texts.append(Text(*xy, label, transform=text_transform, va=va, ha=ha,
-                              fontsize=label_size, color=label_colour, clip_on=False))
+            placed.append((loc, 0.0, label) if which == "x" else (0.0, loc, label))
             width, height = text_size_pt(label, label_size)
             reach = max(reach, pad + (height if which == "x" else width))
+        if placed:
+            groups.append((Text(0.0, 0.0, "", transform=text_transform, va=va, ha=ha,
+                                fontsize=label_size, color=label_colour, clip_on=False),
+                           placed))
         if not minor and rc["axes.grid"] and rc["axes.grid.which"] in ("major", "both") \
                 and rc["axes.grid.axis"] in ("both", which):
             nan = float("nan")
@@ -154,20 +176,24 @@ def _draw_axis(ax: Axes, axis: Axis, which: str) -> Callable[[], None]:
                 Line2D(across, along, transform=edge)
             grid.set(color=rc["grid.color"], linewidth=float(rc["grid.linewidth"]),
                      linestyle=rc["grid.linestyle"], alpha=rc["grid.alpha"], zorder=1.5)
-            ax.add_artist(grid)
+            grid.set_clip_path(ax.patch)  # inside the axes, as added to them
+            parts.append(grid)
     offset = axis.get_major_formatter().get_offset()
     if offset:
         if which == "x":
-            texts.append(Text(1.0, 0.0, offset, va="top", ha="right", fontsize=label_size,
-                              color=label_colour, clip_on=False, transform=ax.transAxes
-                              + ScaledTranslation(0, -(reach + 2) / 72,
-                                                  ax.figure.dpi_scale_trans)))
+            groups.append((Text(0.0, 0.0, "", va="top", ha="right", fontsize=label_size,
+                                color=label_colour, clip_on=False, transform=ax.transAxes
+                                + ScaledTranslation(0, -(reach + 2) / 72,
+                                                    ax.figure.dpi_scale_trans)),
+                           [(1.0, 0.0, offset)]))
         else:
-            texts.append(Text(0.0, 1.0, offset, va="bottom", ha="left", fontsize=label_size,
-                              color=label_colour, clip_on=False, transform=ax.transAxes
-                              + ScaledTranslation(0, 2 / 72, ax.figure.dpi_scale_trans)))
-    if texts:
-        ax.add_artist(_Labels(ax, texts))
+            groups.append((Text(0.0, 0.0, "", va="bottom", ha="left", fontsize=label_size,
+                                color=label_colour, clip_on=False, transform=ax.transAxes
+                                + ScaledTranslation(0, 2 / 72, ax.figure.dpi_scale_trans)),
+                           [(0.0, 1.0, offset)]))
+    parts += groups
+    if parts:
+        ax.add_artist(_AxisArtists(ax, parts))
     major, minor_locator = axis.get_major_locator(), axis.get_minor_locator()
     axis.set_major_locator(NullLocator())
     axis.set_minor_locator(NullLocator())

@@ -22,21 +22,33 @@ import threading
 from typing import Any
 
 import matplotlib as mpl
+import numpy as np
+from matplotlib import colors as mcolors
+from matplotlib import font_manager
 from matplotlib.axes import Axes
 from matplotlib.axis import Axis
-from matplotlib.backends.backend_svg import FigureCanvasSVG, RendererSVG
+from matplotlib.backends.backend_svg import (
+    FigureCanvasSVG,
+    RendererSVG,
+    _generate_css,
+    _generate_transform,
+    _short_float_fmt,
+)
 from matplotlib.figure import Figure as MplFigure
 from matplotlib.font_manager import FontProperties, findfont, get_font
+from matplotlib.lines import Line2D
 from matplotlib.ticker import AutoLocator, NullFormatter, NullLocator, ScalarFormatter
-from matplotlib.transforms import Bbox
+from matplotlib.transforms import Affine2D, Bbox
 
 from builder.site.figures_axes import light_axes
+from builder.site.figures_text import make_light
 from builder.site.svg import compact
 
-__all__ = ["Kept", "svg_bytes"]
+__all__ = ["Kept", "plot_line", "svg_bytes"]
 
 _SIZES: dict[tuple[str, Any, FontProperties], tuple[float, float, float]] = {}
 _HEIGHTS: dict[FontProperties, tuple[Any, Any, Any]] = {}
+_TEXT_CSS: dict[tuple[FontProperties, Any, str], str] = {}
 
 
 class _Renderer(RendererSVG):
@@ -76,6 +88,80 @@ class _Renderer(RendererSVG):
         return metrics
 
 
+    def draw_markers(self, gc: Any, marker_path: Any, marker_trans: Any, path: Any,
+                     trans: Any, rgbFace: Any = None) -> None:
+        """matplotlib's markers (the same bytes: a definition once, then one ``<use>`` per
+        point), with the style every ``<use>`` repeats worked out once per line instead
+        of once per marker."""
+        if not len(path.vertices):
+            return
+        writer = self.writer
+        path_data = self._convert_path(marker_path, marker_trans + Affine2D().scale(1.0, -1.0),
+                                       simplify=False)
+        style = self._get_style_dict(gc, rgbFace)
+        dictkey = (path_data, _generate_css(style))
+        oid = self._markers.get(dictkey)
+        stroke = _generate_css({k: v for k, v in style.items() if k.startswith("stroke")})
+        if oid is None:
+            oid = self._make_id("m", dictkey)
+            writer.start("defs")
+            writer.element("path", id=oid, d=path_data, style=stroke)
+            writer.end("defs")
+            self._markers[dictkey] = oid
+        writer.start("g", **self._get_clip_attrs(gc))
+        if gc.get_url() is not None:
+            writer.start("a", {"xlink:href": gc.get_url(), "target": "_blank"})
+        trans_and_flip = self._make_flip_transform(trans)
+        attrib = {"xlink:href": f"#{oid}"}
+        clip = (0, 0, self.width * 72, self.height * 72)
+        use_style = self._get_style(gc, rgbFace)
+        for vertices, _code in path.iter_segments(trans_and_flip, clip=clip, simplify=False):
+            if len(vertices):
+                x, y = vertices[-2:]
+                attrib["x"] = _short_float_fmt(x)
+                attrib["y"] = _short_float_fmt(y)
+                attrib["style"] = use_style
+                writer.element("use", attrib=attrib)
+        if gc.get_url() is not None:
+            writer.end("a")
+        writer.end("g")
+
+
+    def write_text_line(self, s: str, prop: FontProperties, colour: Any, alpha: float | None,
+                        ha: str, xy: tuple[float, float], anchor: tuple[float, float],
+                        angle: float) -> None:
+        """One line of text as matplotlib's SVG renderer writes it for a text anchored at
+        ``anchor`` (display units, y up) and laid out to start at ``xy`` (y down), with
+        no clip or link (the same bytes), its style worked out once per font, colour and
+        alignment for the process."""
+        rgba = mcolors.to_rgba(colour) if alpha is None else mcolors.to_rgba(colour, alpha)
+        key = (prop.copy(), rgba, ha)
+        style = _TEXT_CSS.get(key)
+        if style is None:
+            color_style = {}
+            hex_colour = mcolors.rgb2hex(rgba)
+            if hex_colour != "#000000":
+                color_style["fill"] = hex_colour
+            if rgba[3] != 1:
+                color_style["opacity"] = _short_float_fmt(rgba[3])
+            anchor_css = {"left": "start", "right": "end", "center": "middle"}[ha]
+            style = _generate_css({**_font_css(prop), "text-anchor": anchor_css,
+                                   **color_style})
+            if len(_TEXT_CSS) < 5_000:
+                _TEXT_CSS[key] = style
+        x, y = xy
+        ax, ay = anchor[0], self.height - anchor[1]
+        # The vertical layout moved onto the anchor point, as matplotlib's renderer does.
+        angle_rad = np.deg2rad(angle)
+        dir_vert = np.array([np.sin(angle_rad), np.cos(angle_rad)])
+        v_offset = np.dot(dir_vert, [(x - ax), (y - ay)])
+        ax = ax + v_offset * dir_vert[0]
+        ay = ay + v_offset * dir_vert[1]
+        self.writer.element("text", s, attrib={
+            "style": style, "x": _short_float_fmt(ax), "y": _short_float_fmt(ay),
+            "transform": _generate_transform([("rotate", (-angle, ax, ay))])})
+
+
 def raw_svg(fig: MplFigure) -> bytes:
     """``fig`` as SVG, byte for byte what ``fig.savefig(format="svg")`` writes without
     date and creator metadata."""
@@ -107,6 +193,49 @@ def svg_bytes(fig: MplFigure) -> bytes:
     return compact(raw)
 
 
+def _font_css(prop: FontProperties) -> dict[str, str]:
+    """The CSS font properties matplotlib's SVG renderer gives a text set in ``prop`` (its
+    ``_draw_text_as_text``)."""
+    style: dict[str, str] = {}
+    if prop.get_style() != "normal":
+        style["font-style"] = prop.get_style()
+    if prop.get_variant() != "normal":
+        style["font-variant"] = prop.get_variant()
+    weight: Any = prop.get_weight()
+    weight = font_manager.weight_dict.get(weight, weight)
+    if weight != 400:
+        style["font-weight"] = f"{weight}"
+
+    def normal_sans(name: str) -> str:
+        return "sans-serif" if name in ("sans", "sans serif") else name
+
+    names = []
+    for entry in prop.get_family():
+        entry = normal_sans(entry)
+        if entry in font_manager.font_family_aliases:
+            names += [normal_sans(name) for name in
+                      font_manager.FontManager._expand_aliases(entry)]  # type: ignore[attr-defined]
+        names.append(entry)
+    quoted = [name if name in font_manager.font_family_aliases else repr(name)
+              for name in names]
+    style["font-size"] = f"{_short_float_fmt(prop.get_size())}px"
+    style["font-family"] = ", ".join(dict.fromkeys(quoted))
+    if prop.get_stretch() != "normal":
+        style["font-stretch"] = str(prop.get_stretch())
+    return style
+
+
+def plot_line(ax: Axes, x: Any, y: Any, **style: Any) -> Line2D:
+    """What ``ax.plot(x, y, **style)`` draws for one line whose colour is given, without
+    ``plot``'s reading of its arguments and property cycle (a third of its time): the
+    line added to the axes and their limits asked to follow the data, as ``plot``
+    does."""
+    line = Line2D(x, y, **style)
+    ax.add_line(line)
+    ax.autoscale(enable=None)  # type: ignore[arg-type]  # None: as they are set (documented)
+    return line
+
+
 class Kept:
     """Prepared figures kept per kind for reuse within a process (one set per thread: a
     cluster worker may draw in several threads)."""
@@ -123,14 +252,15 @@ class Kept:
         if fig is None:
             fig = MplFigure(figsize=size_in)
             FigureCanvasSVG(fig)
-            fig.subplots(rows, cols, squeeze=False)
+            for ax in fig.subplots(rows, cols, squeeze=False).flat:
+                make_light(ax)
             figures[key] = fig
         else:
             fig.set_size_inches(size_in)
             for legend in list(fig.legends):
                 legend.remove()
-            for text in list(fig.texts):
-                text.remove()
+            for artist in [*fig.texts, *fig.artists]:
+                artist.remove()
             for ax in fig.axes:
                 _reset(ax)
         return fig, list(fig.axes)

@@ -269,7 +269,8 @@ def _warnings(results: PairResults, display: Display,
         if not check.passed:
             out.append(f"Check failed: {one_line(check.name)}: {one_line(check.detail)}")
     quality = results.pair.quality
-    if quality in ("unverified", "demo", "predicted"):
+    # A predicted page says so in its banner, on screen and in print (pair.md.j2).
+    if quality in ("unverified", "demo"):
         out.append(f"Parameter quality '{quality}': {QUALITIES.get(quality, '')}.")
     return tuple(out)
 

@@ -14,11 +14,14 @@ import matplotlib
 import numpy as np
 from matplotlib.figure import Figure as MplFigure
 from matplotlib.lines import Line2D
+from matplotlib.transforms import ScaledTranslation
 
 from builder.analysis.results import ConditionResult, PairResults
 from builder.site.context import Display, condition_slug, summary_condition
 from builder.site.figures import BUBBLE_COLOUR, DEW_COLOUR, STYLE, Figure
-from builder.site.figures_canvas import Kept, svg_bytes
+from builder.site.figures_canvas import Kept, plot_line, svg_bytes
+from builder.site.figures_legend import LightLegend
+from builder.site.figures_text import LightText
 from builder.site.settings import SiteSettings
 from builder.site.text import fmt, mpl_text, one_line, safe_id
 
@@ -44,36 +47,38 @@ def _draw(results: PairResults, result: ConditionResult, display: Display) -> Mp
     fig.subplots_adjust(left=0.62 / w, right=1 - 0.15 / w, bottom=0.95 / h, top=1 - 0.5 / h,
                         wspace=0.32)
     marks = _every_tenth(curve.x1)
-    txy.plot(curve.x1, T, color=BUBBLE_COLOUR, marker="o", markevery=marks)
-    txy.plot(curve.y1, T, color=DEW_COLOUR, marker="s", markerfacecolor="white",
-             markevery=marks)
-    xy.plot([0, 1], [0, 1], color="#8a8a8a", linestyle=":", linewidth=0.9)
-    xy.plot(curve.x1, y1, color=BUBBLE_COLOUR, marker="o", markevery=marks)
+    plot_line(txy, curve.x1, T, color=BUBBLE_COLOUR, marker="o", markevery=marks)
+    plot_line(txy, curve.y1, T, color=DEW_COLOUR, marker="s", markerfacecolor="white",
+              markevery=marks)
+    plot_line(xy, [0, 1], [0, 1], color="#8a8a8a", linestyle=":", linewidth=0.9)
+    plot_line(xy, curve.x1, y1, color=BUBBLE_COLOUR, marker="o", markevery=marks)
     handles = [Line2D([], [], color=BUBBLE_COLOUR, marker="o", label="bubble line (x1)"),
                Line2D([], [], color=DEW_COLOUR, marker="s", markerfacecolor="white",
                       label="dew line (y1)")]
     three = result.three_phase
     if three is not None:
         level = display.T_value(three.T_K)
-        txy.plot([three.x1_a, three.x1_b], [level, level], color="#4b4b4b", linewidth=3.2,
-                 solid_capstyle="butt", zorder=5)
-        xy.plot([three.x1_a, three.x1_b], [three.y1, three.y1], color="#4b4b4b",
-                linewidth=3.2, solid_capstyle="butt", zorder=5)
+        plot_line(txy, [three.x1_a, three.x1_b], [level, level], color="#4b4b4b",
+                  linewidth=3.2, solid_capstyle="butt", zorder=5)
+        plot_line(xy, [three.x1_a, three.x1_b], [three.y1, three.y1], color="#4b4b4b",
+                  linewidth=3.2, solid_capstyle="butt", zorder=5)
         handles.append(Line2D([], [], color="#4b4b4b", linewidth=3.2,
                               label="three-phase line"))
     for a in result.azeotropes:
-        txy.plot([a.x1], [display.T_value(a.T_K)], marker="*", markersize=11, color="black",
-                 linestyle="none", zorder=7)
-        xy.plot([a.x1], [a.x1], marker="*", markersize=11, color="black", linestyle="none",
-                zorder=7)
+        plot_line(txy, [a.x1], [display.T_value(a.T_K)], marker="*", markersize=11,
+                  color="black", linestyle="none", zorder=7)
+        plot_line(xy, [a.x1], [a.x1], marker="*", markersize=11, color="black", linestyle="none",
+                  zorder=7)
         handles.append(Line2D([], [], marker="*", markersize=11, color="black",
                               linestyle="none", label=f"azeotrope x1 = {fmt(a.x1, 3)}, "
                               f"{display.T(a.T_K)}"))
     n1, n2 = mpl_text(results.component1.name), mpl_text(results.component2.name)
     txy.set_title(f"Txy at {display.condition(result)} (predicted)", loc="left", pad=15)
-    txy.annotate(f"{n1} (1) + {n2} (2), {mpl_text(results.pair.model.name)}", xy=(0, 1),
-                 xycoords="axes fraction", xytext=(0, 4), textcoords="offset points",
-                 va="bottom", ha="left", fontsize=8, color="#3a444c")
+    txy.add_artist(LightText(0.0, 1.0, f"{n1} (1) + {n2} (2), "
+                             f"{mpl_text(results.pair.model.name)}", va="bottom", ha="left",
+                             fontsize=8, color="#3a444c", clip_on=False,
+                             transform=txy.transAxes + ScaledTranslation(
+                                 0, 4 / 72, fig.dpi_scale_trans)))
     txy.set_ylabel(f"Temperature / {display.T_unit}")
     txy.set_xlabel(f"x1, y1: mole fraction of {n1}")
     xy.set_title("xy diagram", loc="left", pad=15)
@@ -82,8 +87,9 @@ def _draw(results: PairResults, result: ConditionResult, display: Display) -> Mp
     for ax in (txy, xy):
         ax.set_xlim(0, 1)
     xy.set_ylim(0, 1)
-    fig.legend(handles=handles, loc="lower left", bbox_to_anchor=(0.06, 0.0),
-               ncol=min(4, len(handles)), frameon=False, fontsize=7.5)
+    fig.add_artist(LightLegend(handles, loc="lower left", anchor=(0.06, 0.0),
+                               transform=fig.transFigure, ncol=min(4, len(handles)),
+                               fontsize=7.5))
     return fig
 
 

@@ -77,7 +77,8 @@ def bubble_vapour(vapour: VapourModel, p1: FloatArray, p2: FloatArray, T_K: Floa
     if not isinstance(vapour, VirialVapour):
         return _substitution(vapour, p1, p2, T_K, P_Pa, psat1_Pa, psat2_Pa)
     a1, a2, s = vapour.correction_terms(T_K, P_Pa, psat1_Pa, psat2_Pa)
-    a1, a2, s = (np.broadcast_to(v, p1.shape) for v in (a1, a2, s))
+    a1, a2, s = (v if np.shape(v) == p1.shape else np.broadcast_to(v, p1.shape)
+                 for v in (a1, a2, s))
     with np.errstate(all="ignore"):
         total = p1 + p2
         has_vapour = np.isfinite(total) & (total > 0)
@@ -93,7 +94,7 @@ def bubble_vapour(vapour: VapourModel, p1: FloatArray, p2: FloatArray, T_K: Floa
             yy = y * (1.0 - y)
             step = np.where(inner, (u - L - s * (2.0 * y - 1.0)) / (1.0 - 2.0 * s * yy), 0.0)
             u = u - step
-            if not np.any(np.abs(step) * yy > 0.25 * Y_TOLERANCE):
+            if not (np.abs(step) * yy > 0.25 * Y_TOLERANCE).any():
                 break
         # A pure end (p1 or p2 zero) has the pure vapour.
         y = np.where(inner, 1.0 / (1.0 + np.exp(-u)), p1 / total)

@@ -34,7 +34,8 @@ from numpy.typing import ArrayLike, NDArray
 
 from builder.thermo.units import GAS_CONSTANT_J_PER_MOL_K
 
-__all__ = ["CubicMixture", "EquationOfStateLiquid", "pr_ln_phi", "pr_pure_ab", "pr_z_roots"]
+__all__ = ["CubicMixture", "EquationOfStateLiquid", "pr_ln_phi", "pr_ln_phi_phases", "pr_pure_ab",
+           "pr_z_roots"]
 
 FloatArray = NDArray[np.float64]
 _SQRT2 = float(np.sqrt(2.0))
@@ -75,7 +76,17 @@ def pr_z_roots(A: ArrayLike, B: ArrayLike) -> tuple[FloatArray, FloatArray]:
     """
     A_arr, B_arr = np.broadcast_arrays(np.asarray(A, dtype=float), np.asarray(B, dtype=float))
     shape = A_arr.shape
-    a, b = A_arr.ravel(), B_arr.ravel()
+    liquid, vapour = _z_roots_flat(A_arr.ravel(), B_arr.ravel())
+    return liquid.reshape(shape), vapour.reshape(shape)
+
+
+#: The angles of the three real roots in the trigonometric form, 2πk/3 for k = 0, 1, 2.
+_ROOT_ANGLES = np.array([2.0 * np.pi * k / 3.0 for k in range(3)])[:, None]
+
+
+def _z_roots_flat(a: FloatArray, b: FloatArray) -> tuple[FloatArray, FloatArray]:
+    """:func:`pr_z_roots` of flat arrays ``A``, ``B`` (the arithmetic of the public function,
+    with the fewest array operations: it runs inside every Newton step of the φ–φ solvers)."""
     c2 = -(1.0 - b)
     c1 = a - 3.0 * b**2 - 2.0 * b
     c0 = -(a * b - b**2 - b**3)
@@ -85,23 +96,30 @@ def pr_z_roots(A: ArrayLike, B: ArrayLike) -> tuple[FloatArray, FloatArray]:
     q = 2.0 * c2**3 / 27.0 - c2 * c1 / 3.0 + c0
     disc = (q / 2.0) ** 2 + (p / 3.0) ** 3
     one = disc > 0
+    # Where every point has one real root (or every point three), the other form is not
+    # evaluated; each point's arithmetic is the same either way.
+    every = bool(one.all())
+    none = not every and not one.any()
     with np.errstate(invalid="ignore", divide="ignore"):
-        root_d = np.sqrt(np.where(one, disc, 0.0))
-        single = np.cbrt(-q / 2.0 + root_d) + np.cbrt(-q / 2.0 - root_d) + shift
-        m = 2.0 * np.sqrt(np.where(one, 0.0, -p / 3.0))
-        arg = np.clip(np.where(one | (p == 0), 0.0, 3.0 * q / (p * m)), -1.0, 1.0)
-        theta = np.arccos(arg) / 3.0
-        three = np.stack([m * np.cos(theta - 2.0 * np.pi * k / 3.0) + shift for k in range(3)])
-    roots = np.where(one[None, :], single[None, :], three)
-    for _ in range(2):
-        f = ((roots + c2) * roots + c1) * roots + c0
-        df = (3.0 * roots + 2.0 * c2) * roots + c1
-        with np.errstate(invalid="ignore", divide="ignore"):
+        if not none:
+            root_d = np.sqrt(np.where(one, disc, 0.0))
+            single = np.cbrt(-q / 2.0 + root_d) + np.cbrt(-q / 2.0 - root_d) + shift
+        if not every:
+            m = 2.0 * np.sqrt(np.where(one, 0.0, -p / 3.0))
+            arg = np.minimum(np.maximum(
+                np.where(one | (p == 0), 0.0, 3.0 * q / (p * m)), -1.0), 1.0)
+            theta = np.arccos(arg) / 3.0
+            three = m * np.cos(theta - _ROOT_ANGLES) + shift
+        roots = (single[None, :] if every else three if none
+                 else np.where(one, single, three))
+        for _ in range(2):
+            f = ((roots + c2) * roots + c1) * roots + c0
+            df = (3.0 * roots + 2.0 * c2) * roots + c1
             roots = roots - np.where(df != 0, f / df, 0.0)
-    valid = roots > b[None, :]
+    valid = roots > b
     liquid = np.where(valid, roots, np.inf).min(axis=0)
     vapour = np.where(valid, roots, -np.inf).max(axis=0)
-    return liquid.reshape(shape), vapour.reshape(shape)
+    return liquid, vapour
 
 
 def pr_ln_phi(x1: ArrayLike, T_K: ArrayLike, P_Pa: ArrayLike,
@@ -134,6 +152,47 @@ def pr_ln_phi(x1: ArrayLike, T_K: ArrayLike, P_Pa: ArrayLike,
     B = b * P / (R * T)
     z_liquid, z_vapour = pr_z_roots(A, B)
     Z = z_liquid if phase == "liquid" else z_vapour
+    log_term = np.log((Z + (1.0 + _SQRT2) * B) / (Z + (1.0 - _SQRT2) * B))
+    common = -np.log(Z - B)
+    factor = A / (2.0 * _SQRT2 * B)
+    out = []
+    for bi, sum_a in ((b1, x * a1 + x2 * a12), (b2, x * a12 + x2 * a2)):
+        ratio = bi / b
+        out.append(ratio * (Z - 1.0) + common - factor * (2.0 * sum_a / a - ratio) * log_term)
+    return out[0], out[1], Z
+
+
+def pr_ln_phi_phases(z1: FloatArray, T_K: FloatArray, P_Pa: FloatArray,
+                     Tc_K: tuple[float, float], Pc_Pa: tuple[float, float],
+                     omega: tuple[float, float], kij: float, vapour: NDArray[np.bool_]
+                     ) -> tuple[FloatArray, FloatArray, FloatArray]:
+    """:func:`pr_ln_phi` for flat arrays of points, each in its own phase: the vapour root
+    where ``vapour`` is True, the liquid root elsewhere.
+
+    The same arithmetic, element by element, as :func:`pr_ln_phi` of each phase, so the
+    φ–φ solvers evaluate a liquid and its vapour (and the neighbouring points of a
+    finite-difference Jacobian) in one call.  The equimolar propane/n-butane vapour of
+    :func:`pr_ln_phi` beside its liquid at the same state:
+
+    >>> l1, l2, z = pr_ln_phi_phases(np.array([0.5, 0.5]), np.array([330.0, 330.0]),
+    ...                              np.array([1e6, 1e6]), (369.83, 425.12),
+    ...                              (4.248e6, 3.796e6), (0.152, 0.2), 0.003,
+    ...                              np.array([False, True]))
+    >>> [round(float(v), 4) for v in l1], round(float(z[1]), 4)
+    ([0.3982, -0.1244], 0.8136)
+    """
+    x, T, P = z1, T_K, P_Pa
+    R = GAS_CONSTANT_J_PER_MOL_K
+    a1, b1 = pr_pure_ab(T, Tc_K[0], Pc_Pa[0], omega[0])
+    a2, b2 = pr_pure_ab(T, Tc_K[1], Pc_Pa[1], omega[1])
+    a12 = np.sqrt(a1 * a2) * (1.0 - kij)
+    x2 = 1.0 - x
+    a = x * x * a1 + 2.0 * x * x2 * a12 + x2 * x2 * a2
+    b = x * b1 + x2 * b2
+    A = a * P / (R * T) ** 2
+    B = b * P / (R * T)
+    z_liquid, z_vapour = _z_roots_flat(A, B)
+    Z = np.where(vapour, z_vapour, z_liquid)
     log_term = np.log((Z + (1.0 + _SQRT2) * B) / (Z + (1.0 - _SQRT2) * B))
     common = -np.log(Z - B)
     factor = A / (2.0 * _SQRT2 * B)

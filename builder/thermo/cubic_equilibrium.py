@@ -20,6 +20,12 @@ temperature.  :func:`critical_point` follows the two-phase solution at fixed
 (T, P) towards that extreme and brackets it by bisection until the two phases
 differ by less than ``2e-4`` in mole fraction [1, ch. 7].
 
+Speed: every Newton step evaluates the equation of state once for all its points, their
+liquids and vapours and the shifted copies of the finite-difference Jacobian; a
+critical-point march solves the trials it may need next in one vectorised solve
+(:func:`_march`).  Neither changes a result: the rows of a solve are independent, and the
+march settles its trials in the order it would try them one by one.
+
 References
 ----------
 [1] M. L. Michelsen, J. M. Mollerup, Thermodynamic Models: Fundamentals and
@@ -37,7 +43,7 @@ import numpy as np
 from numpy.typing import ArrayLike, NDArray
 
 from builder.thermo.activity import Ideal
-from builder.thermo.cubic import CubicMixture, pr_ln_phi
+from builder.thermo.cubic import CubicMixture, pr_ln_phi_phases
 
 if TYPE_CHECKING:
     from builder.thermo.equilibrium import BinarySystem
@@ -57,7 +63,10 @@ __all__ = [
 
 FloatArray = NDArray[np.float64]
 BoolArray = NDArray[np.bool_]
-Residual = Callable[[FloatArray, FloatArray, BoolArray], tuple[FloatArray, FloatArray]]
+IntArray = NDArray[np.intp]
+#: ``residual(u, v, points)``: the two residuals of each row, ``points`` the index of the
+#: point (its condition and known composition) each row belongs to.
+Residual = Callable[[FloatArray, FloatArray, IntArray], tuple[FloatArray, FloatArray]]
 
 #: Coexisting phases closer than this in mole fraction are taken as the trivial solution.
 TRIVIAL_GAP = 1e-6
@@ -97,10 +106,30 @@ def _mixture(system: BinarySystem) -> CubicMixture:
     return mixture
 
 
+def _both_phases(mix: CubicMixture, x: FloatArray, y: FloatArray, T: FloatArray,
+                 P: FloatArray) -> tuple[FloatArray, FloatArray, FloatArray, FloatArray,
+                                         FloatArray, FloatArray]:
+    """``ln φ1, ln φ2, Z`` of the liquids ``x`` and of the vapours ``y`` at (T, P), in one
+    evaluation of the equation of state (flat arrays of equal length)."""
+    n = x.size
+    T2, P2 = np.concatenate([T, T]), np.concatenate([P, P])
+    vapour = np.zeros(2 * n, dtype=bool)
+    vapour[n:] = True
+    l1, l2, z = pr_ln_phi_phases(np.concatenate([x, y]), T2, P2, mix.Tc_K, mix.Pc_Pa,
+                                 mix.omega, mix.kij, vapour)
+    return l1[:n], l2[:n], z[:n], l1[n:], l2[n:], z[n:]
+
+
 def _ln_k(mix: CubicMixture, x: FloatArray, y: FloatArray, T: FloatArray, P: FloatArray
           ) -> tuple[FloatArray, FloatArray]:
-    l1, l2 = mix.ln_phi_phase(x, T, P, "liquid")
-    v1, v2 = mix.ln_phi_phase(y, T, P, "vapour")
+    x, y = np.asarray(x, dtype=float), np.asarray(y, dtype=float)
+    T, P = np.asarray(T, dtype=float), np.asarray(P, dtype=float)
+    if x.ndim != 1 or not (x.shape == y.shape == T.shape == P.shape):
+        shape = np.broadcast_shapes(x.shape, y.shape, T.shape, P.shape)
+        x, y, T, P = (np.broadcast_to(v, shape).ravel() for v in (x, y, T, P))
+        k1, k2 = _ln_k(mix, x, y, T, P)
+        return k1.reshape(shape), k2.reshape(shape)
+    l1, l2, _, v1, v2, _ = _both_phases(mix, x, y, T, P)
     return l1 - v1, l2 - v2
 
 
@@ -122,26 +151,50 @@ def k_values(mix: CubicMixture, x1: ArrayLike, T_K: ArrayLike, P_Pa: ArrayLike,
     return np.exp(k1), np.exp(k2)
 
 
-def _newton(residual: Residual, u: FloatArray, v: FloatArray,
-            u_bounds: tuple[float, float], v_bounds: tuple[float, float],
-            max_du: float, maxiter: int = 50) -> tuple[FloatArray, FloatArray, BoolArray]:
-    """Damped Newton for two unknowns per point, finite-difference Jacobian."""
-    u, v = u.astype(float).copy(), v.astype(float).copy()
-    n = u.size
-    active = np.isfinite(u) & np.isfinite(v)
-    converged = np.zeros(n, dtype=bool)
-    for iteration in range(maxiter):
-        if not active.any():
-            break
+class _NewtonRun:
+    """A damped Newton solve for two unknowns per point (finite-difference Jacobian), run a
+    step at a time, so that a caller can stop rows whose answer it no longer needs.
+
+    Each step evaluates the active points and their two shifted copies (the Jacobian's
+    columns) in one call of ``residual`` on three stacked copies.  Rows are independent:
+    a row's path depends only on its own start, whatever else runs beside it.
+    """
+
+    def __init__(self, residual: Residual, u: FloatArray, v: FloatArray,
+                 u_bounds: tuple[float, float], v_bounds: tuple[float, float],
+                 max_du: float, maxiter: int = 50) -> None:
+        self.residual, self.u_bounds, self.v_bounds = residual, u_bounds, v_bounds
+        self.max_du, self.maxiter = max_du, maxiter
+        self.u, self.v = u.astype(float).copy(), v.astype(float).copy()
+        self.active = np.isfinite(self.u) & np.isfinite(self.v)
+        self.converged = np.zeros(self.u.size, dtype=bool)
+        self.iteration = 0
+
+    @property
+    def running(self) -> bool:
+        return self.iteration < self.maxiter and bool(self.active.any())
+
+    @property
+    def finished(self) -> BoolArray:
+        """Rows whose answer is final (converged, abandoned or out of iterations)."""
+        if self.iteration >= self.maxiter:
+            return np.ones(self.u.size, dtype=bool)
+        return ~self.active
+
+    def step(self) -> None:
+        u, v, active = self.u, self.v, self.active
+        iteration = self.iteration
+        self.iteration += 1
         idx = np.flatnonzero(active)
-        mask = np.zeros(n, dtype=bool)
-        mask[idx] = True
+        m = idx.size
         ua, va = u[idx], v[idx]
-        r1, r2 = residual(ua, va, mask)
         hu = 1e-7 * np.maximum(np.abs(ua), 1.0)
         hv = np.where(va > 0.5, -1e-7, 1e-7)
-        s1, s2 = residual(ua + hu, va, mask)
-        t1, t2 = residual(ua, va + hv, mask)
+        q1, q2 = self.residual(np.concatenate([ua, ua + hu, ua]),
+                               np.concatenate([va, va, va + hv]),
+                               np.concatenate([idx, idx, idx]))
+        r1, s1, t1 = q1[:m], q1[m:2 * m], q1[2 * m:]
+        r2, s2, t2 = q2[:m], q2[m:2 * m], q2[2 * m:]
         j11, j21 = (s1 - r1) / hu, (s2 - r2) / hu
         j12, j22 = (t1 - r1) / hv, (t2 - r2) / hv
         det = j11 * j22 - j12 * j21
@@ -149,10 +202,11 @@ def _newton(residual: Residual, u: FloatArray, v: FloatArray,
             du = -(r1 * j22 - r2 * j12) / det
             dv = -(j11 * r2 - j21 * r1) / det
         bad = ~(np.isfinite(du) & np.isfinite(dv) & np.isfinite(r1) & np.isfinite(r2))
-        du = np.clip(np.where(bad, 0.0, du), -max_du, max_du)
-        dv = np.clip(np.where(bad, 0.0, dv), -0.2, 0.2)
-        u_new = np.clip(ua + du, *u_bounds)
-        v_new = np.clip(va + dv, *v_bounds)
+        max_du, u_bounds, v_bounds = self.max_du, self.u_bounds, self.v_bounds
+        du = np.minimum(np.maximum(np.where(bad, 0.0, du), -max_du), max_du)
+        dv = np.minimum(np.maximum(np.where(bad, 0.0, dv), -0.2), 0.2)
+        u_new = np.minimum(np.maximum(ua + du, u_bounds[0]), u_bounds[1])
+        v_new = np.minimum(np.maximum(va + dv, v_bounds[0]), v_bounds[1])
         size = np.maximum(np.abs(r1), np.abs(r2))
         small = (size < 1e-11) & (
             np.abs(u_new - ua) <= 1e-9 * np.maximum(np.abs(ua), 1.0)) & (
@@ -160,9 +214,18 @@ def _newton(residual: Residual, u: FloatArray, v: FloatArray,
         # Give up on points that make no headway (far from any root, or at the trivial one).
         stuck = (iteration >= 12) & (size > 1e-6)
         u[idx], v[idx] = u_new, v_new
-        converged[idx[small]] = True
+        self.converged[idx[small]] = True
         active[idx[small | bad | stuck]] = False
-    return u, v, converged
+
+
+def _newton(residual: Residual, u: FloatArray, v: FloatArray,
+            u_bounds: tuple[float, float], v_bounds: tuple[float, float],
+            max_du: float, maxiter: int = 50) -> tuple[FloatArray, FloatArray, BoolArray]:
+    """:class:`_NewtonRun` to the end: ``u``, ``v`` and which rows converged."""
+    run = _NewtonRun(residual, u, v, u_bounds, v_bounds, max_du, maxiter)
+    while run.running:
+        run.step()
+    return run.u, run.v, run.converged
 
 
 def _k_residual(mix: CubicMixture, x: FloatArray, y: FloatArray, T: FloatArray, P: FloatArray
@@ -174,8 +237,9 @@ def _k_residual(mix: CubicMixture, x: FloatArray, y: FloatArray, T: FloatArray, 
 def _trivial(mix: CubicMixture, x: FloatArray, y: FloatArray, T: FloatArray, P: FloatArray
              ) -> BoolArray:
     """Points where the two "phases" are one: same composition and same density root."""
-    _, _, z_liquid = pr_ln_phi(x, T, P, mix.Tc_K, mix.Pc_Pa, mix.omega, mix.kij, "liquid")
-    _, _, z_vapour = pr_ln_phi(y, T, P, mix.Tc_K, mix.Pc_Pa, mix.omega, mix.kij, "vapour")
+    x, y = np.asarray(x, dtype=float), np.asarray(y, dtype=float)
+    T, P = np.broadcast_to(T, x.shape).astype(float), np.broadcast_to(P, x.shape).astype(float)
+    *_, z_liquid, _, _, z_vapour = _both_phases(mix, x, y, T, P)
     same_root = np.abs(z_liquid - z_vapour) <= 1e-7 * np.abs(z_vapour)
     # A liquid no denser than its vapour is a spurious root pairing, not two phases.
     inverted = z_liquid > z_vapour * (1.0 + 1e-12)
@@ -210,10 +274,11 @@ def _solve(kind: str, system: BinarySystem, z: FloatArray, condition: FloatArray
     else:
         u0[fallback] = np.log(0.5 * (mix.Pc_Pa[0] + mix.Pc_Pa[1]))
 
-    def residual(u: FloatArray, v: FloatArray, mask: BoolArray) -> tuple[FloatArray, FloatArray]:
-        T = u if by_T else condition[mask]
-        P = condition[mask] if by_T else np.exp(u)
-        x, y = (z[mask], v) if bubble else (v, z[mask])
+    def residual(u: FloatArray, v: FloatArray, points: IntArray
+                 ) -> tuple[FloatArray, FloatArray]:
+        T = u if by_T else condition[points]
+        P = condition[points] if by_T else np.exp(u)
+        x, y = (z[points], v) if bubble else (v, z[points])
         return _k_residual(mix, x, y, T, P)
 
     u_bounds = (1.0, 5.0 * max(mix.Tc_K)) if by_T else (np.log(1.0), np.log(1e9))
@@ -230,6 +295,7 @@ def _solve(kind: str, system: BinarySystem, z: FloatArray, condition: FloatArray
     ok = accept(u, v, ok, np.arange(z.size))
     # Continuation: retry failed points from their nearest converged neighbour, a grid
     # step at a time (enough sweeps to walk into a critical region from the Raoult guesses).
+    dead_ends: set[tuple[int, int]] = set()
     for _ in range(CONTINUATION_SWEEPS):
         failed = np.flatnonzero(~ok)
         good = np.flatnonzero(ok)
@@ -243,21 +309,24 @@ def _solve(kind: str, system: BinarySystem, z: FloatArray, condition: FloatArray
         step_ok = reachable & (np.abs(z[failed] - z[nearest]) <= _grid_step(z, condition))
         if not step_ok.any():
             break
-        retry, start = failed[step_ok], nearest[step_ok]
-        ur, vr = u[start].copy(), v[start] + (z[retry] - z[start])
-        sub = np.zeros(z.size, dtype=bool)
-        sub[retry] = True
-        order = np.flatnonzero(sub)
+        retry, origin = failed[step_ok], nearest[step_ok]
+        # A point that failed from the same converged neighbour fails again (the same
+        # start, the same arithmetic): leave it out, as if retried.
+        new = np.array([(int(i), int(j)) not in dead_ends for i, j in zip(retry, origin,
+                                                                          strict=True)])
+        if not new.any():
+            break
+        retry, origin = retry[new], origin[new]
+        ur, vr = u[origin].copy(), v[origin] + (z[retry] - z[origin])
 
-        def sub_residual(uu: FloatArray, vv: FloatArray, mask: BoolArray,
-                         _order: NDArray[np.intp] = order) -> tuple[FloatArray, FloatArray]:
-            full = np.zeros(z.size, dtype=bool)
-            full[_order[mask]] = True
-            return residual(uu, vv, full)
+        def sub_residual(uu: FloatArray, vv: FloatArray, rows: IntArray,
+                         _retry: IntArray = retry) -> tuple[FloatArray, FloatArray]:
+            return residual(uu, vv, _retry[rows])
 
         un, vn, okn = _newton(sub_residual, ur, np.clip(vr, 0.0, 1.0), u_bounds, (0.0, 1.0),
                               max_du)
         okn = accept(un, vn, okn, retry)
+        dead_ends.update(zip(retry[~okn].tolist(), origin[~okn].tolist(), strict=True))
         if not okn.any():
             break
         u[retry[okn]], v[retry[okn]] = un[okn], vn[okn]
@@ -303,25 +372,36 @@ def dew_pressure(system: BinarySystem, y1: FloatArray, T_K: FloatArray) -> Cubic
     return _solve("dew_pressure", system, y1, T_K)
 
 
-def _flash(mix: CubicMixture, T: FloatArray, P: FloatArray, x0: FloatArray, y0: FloatArray
-           ) -> tuple[FloatArray, FloatArray, BoolArray]:
-    """The coexisting ``x1, y1`` at fixed (T, P) from nearby guesses, element by element;
-    False where there is none or only the trivial one."""
+#: Trials one round of a critical-point march prepares at once: the step and, should it
+#: fail, the next shorter ones (each a quarter of the one before).
+SPECULATIVE_TRIALS = 3
 
-    def residual(u: FloatArray, v: FloatArray, mask: BoolArray) -> tuple[FloatArray, FloatArray]:
-        return _k_residual(mix, u, v, T[mask], P[mask])
+#: The most trials one march makes.
+MAX_TRIALS = 400
 
-    x, y, ok = _newton(residual, x0, y0, (0.0, 1.0), (0.0, 1.0), 0.05)
-    good = ok & ~_trivial(mix, x, y, T, P) & (
-        ((0.0 < x) & (x < 1.0)) | (np.abs(x - y) > TRIVIAL_GAP))
-    return x, y, good
+
+def _good_flash(mix: CubicMixture, x: FloatArray, y: FloatArray, T: FloatArray,
+                P: FloatArray, converged: BoolArray) -> BoolArray:
+    """Which converged flashes (coexisting ``x1, y1`` at fixed T and P) found two phases, not
+    the trivial solution."""
+    return np.asarray(converged & ~_trivial(mix, x, y, T, P) & (
+        ((0.0 < x) & (x < 1.0)) | (np.abs(x - y) > TRIVIAL_GAP)), dtype=bool)
 
 
 def _march(mix: CubicMixture, fixed: str, value: FloatArray, start_x1: FloatArray,
            start_y1: FloatArray, start_free: FloatArray, direction: float, gap: float
            ) -> list[CriticalPoint | None]:
-    """:func:`critical_point` for several starts at once (one fixed value each): every
-    march takes its own steps, and the flashes of one round are one vectorised solve."""
+    """:func:`critical_point` for several starts at once (one fixed value each).
+
+    Every march takes its own steps: a trial from the path's linear extrapolation and,
+    if that fails, again from the last solution; a trial that succeeds lengthens the next
+    step by half, one that fails shortens it to a quarter.  A round solves, for every
+    march, its next trial and the shorter trials that would follow its failure
+    (:data:`SPECULATIVE_TRIALS`) in one vectorised Newton solve, run a step at a time
+    and stopped for a march as soon as its outcome is known (its first trial that
+    succeeds, all earlier ones having failed); the outcome is the same as trying them
+    one after another.
+    """
     n = value.size
     lo, x_lo, y_lo = start_free.astype(float).copy(), start_x1.copy(), start_y1.copy()
     paths: list[list[tuple[float, float, float]]] = [
@@ -330,43 +410,105 @@ def _march(mix: CubicMixture, fixed: str, value: FloatArray, start_x1: FloatArra
     smallest = 1e-10 * np.abs(start_free)
     going = np.ones(n, dtype=bool)
     failed = np.zeros(n, dtype=bool)
-    for _ in range(400):
-        going &= (np.abs(x_lo - y_lo) >= gap) & (step >= smallest)
+    trials = np.zeros(n, dtype=int)
+    while True:
+        going &= (np.abs(x_lo - y_lo) >= gap) & (step >= smallest) & (trials < MAX_TRIALS)
         idx = np.flatnonzero(going)
         if idx.size == 0:
             break
-        trial = lo[idx] + direction * step[idx]
-        x0, y0 = x_lo[idx].copy(), y_lo[idx].copy()
-        for k, i in enumerate(idx):  # linear extrapolation along the path as the guess
-            if len(paths[i]) >= 2:
-                f_prev, x_prev, y_prev = paths[i][-2]
-                slope = (trial[k] - lo[i]) / (lo[i] - f_prev)
-                x0[k] = min(max(x_lo[i] + (x_lo[i] - x_prev) * slope, 0.0), 1.0)
-                y0[k] = min(max(y_lo[i] + (y_lo[i] - y_prev) * slope, 0.0), 1.0)
-        T, P = ((value[idx], trial) if fixed == "T" else (trial, value[idx]))
-        x, y, ok = _flash(mix, T, P, x0, y0)
-        retry = np.flatnonzero(~ok & ((x0 != x_lo[idx]) | (y0 != y_lo[idx])))
-        if retry.size:
-            x[retry], y[retry], ok[retry] = _flash(mix, T[retry], P[retry], x_lo[idx[retry]],
-                                                   y_lo[idx[retry]])
-        for k, i in enumerate(idx):
-            if ok[k]:
-                lo[i], x_lo[i], y_lo[i] = trial[k], x[k], y[k]
-                paths[i].append((float(lo[i]), float(x[k]), float(y[k])))
-                step[i] *= 1.5
-                if abs(lo[i] - start_free[i]) > abs(start_free[i]):
-                    failed[i] = True
-                    going[i] = False
-            else:
-                # Past the critical point, or too far for the guess: shorten the step.
+        # Rows of the round: (march, free value, x guess, y guess); per march its chain of
+        # trials, each (free value, row from the extrapolation, row from the last solution
+        # or -1).
+        spec: list[tuple[int, float, float, float]] = []
+        chains: dict[int, list[tuple[float, int, int]]] = {}
+        for i in idx.tolist():
+            s = step[i]
+            chain = chains[i] = []
+            for j in range(SPECULATIVE_TRIALS):
+                if j:
+                    s = s / 4.0
+                    if not (s >= smallest[i]) or trials[i] + j >= MAX_TRIALS:
+                        break
+                trial = lo[i] + direction * s
+                x0, y0 = x_lo[i], y_lo[i]
+                if len(paths[i]) >= 2:  # linear extrapolation along the path as the guess
+                    f_prev, x_prev, y_prev = paths[i][-2]
+                    slope = (trial - lo[i]) / (lo[i] - f_prev)
+                    x0 = min(max(x_lo[i] + (x_lo[i] - x_prev) * slope, 0.0), 1.0)
+                    y0 = min(max(y_lo[i] + (y_lo[i] - y_prev) * slope, 0.0), 1.0)
+                spec.append((i, trial, x0, y0))
+                first, again = len(spec) - 1, -1
+                if (x0 != x_lo[i]) or (y0 != y_lo[i]):
+                    spec.append((i, trial, x_lo[i], y_lo[i]))
+                    again = len(spec) - 1
+                chain.append((trial, first, again))
+        row_march = [row[0] for row in spec]
+        free = np.array([row[1] for row in spec])
+        T = value[row_march] if fixed == "T" else free
+        P = free if fixed == "T" else value[row_march]
+
+        def residual(u: FloatArray, v: FloatArray, points: IntArray,
+                     _T: FloatArray = T, _P: FloatArray = P) -> tuple[FloatArray, FloatArray]:
+            return _k_residual(mix, u, v, _T[points], _P[points])
+
+        run = _NewtonRun(residual, np.array([row[2] for row in spec]),
+                         np.array([row[3] for row in spec]), (0.0, 1.0), (0.0, 1.0), 0.05)
+        rows = len(spec)
+        done = np.zeros(rows, dtype=bool)
+        good = np.zeros(rows, dtype=bool)
+        owner = np.array(row_march)
+        outcome: dict[int, tuple[int, int]] = {}
+        while True:
+            new = run.finished & ~done & ~np.isin(owner, list(outcome))
+            if new.any():
+                where = np.flatnonzero(new)
+                good[where] = _good_flash(mix, run.u[where], run.v[where], T[where],
+                                          P[where], run.converged[where])
+                done[where] = True
+            for i, chain in chains.items():
+                if i in outcome:
+                    continue
+                for j, (_, first, again) in enumerate(chain):
+                    if not done[first]:
+                        break
+                    if good[first]:
+                        outcome[i] = (j, first)
+                        break
+                    if again >= 0:
+                        if not done[again]:
+                            break
+                        if good[again]:
+                            outcome[i] = (j, again)
+                            break
+                else:
+                    outcome[i] = (len(chain), -1)
+                if i in outcome:
+                    run.active[owner == i] = False
+            if len(outcome) == len(chains) or not run.running:
+                break
+            run.step()
+        for i, (j, row) in outcome.items():
+            # Each failed trial shortens the step to a quarter (past the critical point,
+            # or too far for the guess).
+            for _ in range(j):
                 step[i] /= 4.0
+            trials[i] += j
+            if row < 0:
+                continue
+            trials[i] += 1
+            lo[i], x_lo[i], y_lo[i] = chains[i][j][0], run.u[row], run.v[row]
+            paths[i].append((float(lo[i]), float(x_lo[i]), float(y_lo[i])))
+            step[i] *= 1.5
+            if abs(lo[i] - start_free[i]) > abs(start_free[i]):
+                failed[i] = True
+                going[i] = False
     out: list[CriticalPoint | None] = []
     for j in range(n):
         if failed[j]:
             out.append(None)
             continue
-        free = float(lo[j] + 0.5 * direction * step[j])
-        T_c, P_c = (float(value[j]), free) if fixed == "T" else (free, float(value[j]))
+        free_c = float(lo[j] + 0.5 * direction * step[j])
+        T_c, P_c = (float(value[j]), free_c) if fixed == "T" else (free_c, float(value[j]))
         out.append(CriticalPoint(x1=float(0.5 * (x_lo[j] + y_lo[j])), T_K=T_c, P_Pa=P_c,
                                  path=tuple(paths[j])))
     return out

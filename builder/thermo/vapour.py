@@ -244,6 +244,18 @@ def ln_correction(vapour: VapourModel, y1: ArrayLike, T_K: ArrayLike, P_Pa: Arra
     >>> [float(v) for v in ln_correction(IDEAL_GAS, 0.5, 300.0, 1e5, 5e4, 2e4)]
     [0.0, 0.0]
     """
+    if isinstance(vapour, VirialVapour):
+        # The pure liquids' terms and ln φ from one evaluation of B11, B22 and B12 (the same
+        # numbers as VirialComponent.B, element by element).
+        B11, B22, B12 = vapour.coefficients(T_K)
+        T = np.asarray(T_K, dtype=float)
+        P = np.asarray(P_Pa, dtype=float)
+        RT = GAS_CONSTANT_J_PER_MOL_K * T
+        ps1, ps2 = np.asarray(psat1_Pa, dtype=float), np.asarray(psat2_Pa, dtype=float)
+        ref1 = (B11 * ps1 + vapour.component1.liquid_volume_m3_per_mol * (P - ps1)) / RT
+        ref2 = (B22 * ps2 + vapour.component2.liquid_volume_m3_per_mol * (P - ps2)) / RT
+        phi1, phi2 = virial.virial_ln_phi(y1, T_K, P_Pa, B11, B22, B12)
+        return ref1 - phi1, ref2 - phi2
     ref1, ref2 = vapour.ln_liquid_reference(T_K, P_Pa, psat1_Pa, psat2_Pa)
     phi1, phi2 = vapour.ln_phi(y1, T_K, P_Pa)
     return ref1 - phi1, ref2 - phi2
