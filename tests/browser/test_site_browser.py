@@ -35,12 +35,24 @@ def _search(page: Any, query: str) -> list[str]:
     box = page.locator("input.md-search__input")
     box.click()
     box.fill("")
+    # The results of the previous query must be gone before this one is typed, else the
+    # wait below passes on them (at full size the search answers each key press late).
+    page.wait_for_function(
+        "() => { const m = document.querySelector('.md-search-result__meta');"
+        " return !m || !/matching/.test(m.textContent); }")
     page.keyboard.type(query, delay=20)
     page.wait_for_function(
         "() => { const m = document.querySelector('.md-search-result__meta');"
         " return m && /matching|No matching/.test(m.textContent); }")
-    page.wait_for_timeout(300)
-    return [t.strip() for t in page.locator(".md-search-result__item h1").all_inner_texts()]
+    # Then until the list stops changing (the answer to the last key press has arrived).
+    shown: list[str] | None = None
+    for _ in range(40):
+        page.wait_for_timeout(250)
+        now = [t.strip() for t in page.locator(".md-search-result__item h1").all_inner_texts()]
+        if now == shown:
+            break
+        shown = now
+    return shown or []
 
 
 def _all_images_loaded(page: Any) -> int:
