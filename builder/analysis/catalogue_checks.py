@@ -35,8 +35,8 @@ from builder.analysis.results import PairResults, compute_pair
 from builder.catalogue.loader import Catalogue
 from builder.catalogue.records import Component
 
-__all__ = ["COOLPROP_HEOS", "ComponentCheck", "check_components", "failed_sets",
-           "markdown_report", "run_checks"]
+__all__ = ["COOLPROP_HEOS", "ComponentCheck", "check_component", "check_components",
+           "failed_sets", "failure_lines", "markdown_report", "run_checks"]
 
 #: Catalogue ids of fluids that CoolProp 8 models with a reference (Helmholtz) equation
 #: of state, and CoolProp's names for them.
@@ -107,33 +107,45 @@ def _poling_deviation(component: Component) -> float | None:
     return float(np.max(np.abs(vp.pressure_Pa(T) / ref - 1.0)))
 
 
+def check_component(component: Component) -> list[ComponentCheck]:
+    """Boiling point, CoolProp and Poling-table checks of one component."""
+    out: list[ComponentCheck] = []
+    Tb = float(component.vapour_pressure.temperature_K(101325.0))
+    dT = Tb - component.normal_boiling_point_K
+    out.append(ComponentCheck(
+        component.id, component.file, "vapour_pressure: boiling point at 101.325 kPa",
+        abs(dT) <= BOILING_POINT_TOLERANCE_K,
+        f"{component.normal_boiling_point_K:.2f} K ± {BOILING_POINT_TOLERANCE_K} K "
+        "(constants.normal_boiling_point)", f"{Tb:.2f} K", dT))
+    if component.id in COOLPROP_HEOS:
+        dev = _coolprop_deviation(component)
+        out.append(ComponentCheck(
+            component.id, component.file, "vapour_pressure: against CoolProp (HEOS)",
+            None if dev is None else dev <= COOLPROP_TOLERANCE,
+            f"within {COOLPROP_TOLERANCE:.0%} over the validity range",
+            "skipped (CoolProp not installed)" if dev is None else f"max {dev:.2%}", dev))
+    dev = _poling_deviation(component)
+    if dev is not None and component.vapour_pressure_source.ref == "poling-2001":
+        out.append(ComponentCheck(
+            component.id, component.file,
+            "vapour_pressure: transcription of Poling et al. Appendix A",
+            dev <= TRANSCRIPTION_TOLERANCE,
+            f"the table as in the chemicals package, within {TRANSCRIPTION_TOLERANCE:.1%}",
+            f"max {dev:.3%}", dev))
+    return out
+
+
 def check_components(catalogue: Catalogue) -> list[ComponentCheck]:
     """Boiling point, CoolProp and Poling-table checks of every component."""
-    out: list[ComponentCheck] = []
-    for component in catalogue.components.values():
-        Tb = float(component.vapour_pressure.temperature_K(101325.0))
-        dT = Tb - component.normal_boiling_point_K
-        out.append(ComponentCheck(
-            component.id, component.file, "vapour_pressure: boiling point at 101.325 kPa",
-            abs(dT) <= BOILING_POINT_TOLERANCE_K,
-            f"{component.normal_boiling_point_K:.2f} K ± {BOILING_POINT_TOLERANCE_K} K "
-            "(constants.normal_boiling_point)", f"{Tb:.2f} K", dT))
-        if component.id in COOLPROP_HEOS:
-            dev = _coolprop_deviation(component)
-            out.append(ComponentCheck(
-                component.id, component.file, "vapour_pressure: against CoolProp (HEOS)",
-                None if dev is None else dev <= COOLPROP_TOLERANCE,
-                f"within {COOLPROP_TOLERANCE:.0%} over the validity range",
-                "skipped (CoolProp not installed)" if dev is None else f"max {dev:.2%}", dev))
-        dev = _poling_deviation(component)
-        if dev is not None and component.vapour_pressure_source.ref == "poling-2001":
-            out.append(ComponentCheck(
-                component.id, component.file,
-                "vapour_pressure: transcription of Poling et al. Appendix A",
-                dev <= TRANSCRIPTION_TOLERANCE,
-                f"the table as in the chemicals package, within {TRANSCRIPTION_TOLERANCE:.1%}",
-                f"max {dev:.3%}", dev))
-    return out
+    return [check for component in catalogue.components.values()
+            for check in check_component(component)]
+
+
+def failure_lines(checks: Iterable[ComponentCheck]) -> tuple[str, ...]:
+    """The located line of each failed component check (file, entry, check, expected,
+    found)."""
+    return tuple(f"{c.file}: entry {c.component!r}, check {c.name!r}: expected {c.expected}; "
+                 f"found {c.found}" for c in checks if c.passed is False)
 
 
 @dataclass(frozen=True)
@@ -146,8 +158,7 @@ class CheckRun:
     @property
     def failures(self) -> list[str]:
         lines = list(self.problems)
-        lines += [f"{c.file}: entry {c.component!r}, check {c.name!r}: expected {c.expected}; "
-                  f"found {c.found}" for c in self.components if c.passed is False]
+        lines += failure_lines(self.components)
         for result in self.pairs.values():
             for check in result.failed_checks:
                 lines.append(f"{result.pair.file}: entry {result.pair.id!r}, check "
@@ -170,18 +181,19 @@ class CheckedPair(Protocol):
         ...
 
 
-def failed_sets(catalogue: Catalogue, pairs: Mapping[str, CheckedPair]) -> dict[str, list[str]]:
+def failed_sets(catalogue: Catalogue, pairs: Mapping[str, CheckedPair],
+                components: Mapping[str, Sequence[str]] | None = None
+                ) -> dict[str, list[str]]:
     """Pair id -> the located failures of every pair whose checks fail (its own reference
     checks, or a failed check of one of its components): what ``atlas build`` withholds.
 
     ``pairs``: every computed pair by id; one of ``catalogue`` is located by its file, a
-    predicted one by its id."""
-    components: dict[str, list[str]] = {}
-    for c in check_components(catalogue):
-        if c.passed is False:
-            components.setdefault(c.component, []).append(
-                f"{c.file}: entry {c.component!r}, check {c.name!r}: expected {c.expected}; "
-                f"found {c.found}")
+    predicted one by its id.  ``components``: each component's failed checks as located
+    lines (:func:`failure_lines`; the build takes them from its cached component work),
+    else they are checked here."""
+    if components is None:
+        components = {c.id: failure_lines(check_component(c))
+                      for c in catalogue.components.values()}
     out: dict[str, list[str]] = {}
     for pid, computed in pairs.items():
         record = catalogue.pairs.get(pid)
@@ -189,7 +201,7 @@ def failed_sets(catalogue: Catalogue, pairs: Mapping[str, CheckedPair]) -> dict[
         lines = [f"{where}: entry {pid!r}, check {name!r}: {detail}"
                  for name, detail in computed.failed_checks]
         for cid in (computed.component1, computed.component2):
-            lines += components.get(cid, [])
+            lines += components.get(cid, ())
         if lines:
             out[pid] = lines
     return out

@@ -35,7 +35,6 @@ from __future__ import annotations
 
 import functools
 import hashlib
-import os
 import shutil
 import time
 from collections.abc import Callable, Iterable
@@ -65,13 +64,13 @@ from builder.site.cache import (
 )
 from builder.site.content import Bundle, site_content
 from builder.site.executor import Executor, LocalExecutor, default_workers
-from builder.site.mirror import mirror
 from builder.site.pair_entry import PairEntry
 from builder.site.predicted import select_predicted
 from builder.site.progress import Progress
-from builder.site.publish import publish, recover, same_file_system, staging_folder
+from builder.site.publish import publish, recover, staging_folder
 from builder.site.search import search_documents, write_search_index
 from builder.site.settings import SiteSettings, load_settings
+from builder.site.staging_copy import stage_copy
 from builder.site.verify import verify_site
 from builder.site.withheld import withheld_pairs
 from builder.site.work import (
@@ -316,8 +315,9 @@ def build_site(catalogue_dir: Path | str = DEFAULT_CATALOGUE, out_dir: Path | st
     computed = [pid for pid in pair_ids if pid not in report.failed]
     entries: dict[str, PairEntry] = {pid: pair_work[pid].entry for pid in computed}
     comp_figs = {cid: component_work[cid].figure for cid in component_ids}
+    comp_failures = {cid: component_work[cid].failures for cid in component_ids}
     del pair_work, component_work
-    failed = failed_sets(catalogue, entries)
+    failed = failed_sets(catalogue, entries, comp_failures)
     if failed and allow_failed_checks:
         report.published_failing, failed = failed, {}
     # The same validation as `atlas check`: a set that fails its checks is withheld, and
@@ -365,16 +365,9 @@ def build_site(catalogue_dir: Path | str = DEFAULT_CATALOGUE, out_dir: Path | st
             raise
         if source_dir is not None:
             _keep_source(assembly / "source", Path(source_dir))
-        # The site the last build replaced, kept in the cache: brought up to date by
-        # copying what changed, it is the staging copy (else a full copy is made).
-        kept = cache_root / "replaced-site"
-        keep = kept if same_file_system(cache_root, out.parent) else None
-        if use_cache and keep is not None and (kept / MARKER).is_file():
-            os.rename(kept, staging)
-            mirror(html_dir, staging)
-        else:
-            shutil.rmtree(kept, ignore_errors=True)
-            shutil.copytree(html_dir, staging)
+        # The staging copy: what changed is copied, the rest linked from the site now
+        # published (a cold build copies everything).
+        stage_copy(html_dir, staging, out if use_cache and (out / MARKER).is_file() else None)
         stage("assemble", t)
 
         t = start("verify")
@@ -394,7 +387,7 @@ def build_site(catalogue_dir: Path | str = DEFAULT_CATALOGUE, out_dir: Path | st
                                + (f"\n  ... and {more} more" if more > 0 else ""))
 
         t = start("publish")
-        publish(staging, out, keep)
+        publish(staging, out)
         stage("publish", t)
     finally:
         if staging.exists():

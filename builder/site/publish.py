@@ -6,13 +6,9 @@ are cheap and atomic), verifies it there, and then:
 
 * on Linux, exchanges the staging folder and the published folder in one
   atomic ``renameat2(RENAME_EXCHANGE)`` call, then deletes the old site
-  (now under the staging name) or keeps it for the next build;
+  (now under the staging name);
 * elsewhere, renames the published folder to ``.site.old-<pid>``, the staging
-  folder to ``site``, and deletes or keeps the old one.
-
-The build keeps the replaced site in its cache when the cache is on the same file
-system: the next build's staging folder starts from it and copies only the files
-that changed (:mod:`.mirror`) instead of the whole site.
+  folder to ``site``, and deletes the old one.
 
 A build that fails or is killed before publishing leaves the published site
 untouched (and a staging folder that the next build removes).  If a build is
@@ -29,7 +25,7 @@ import shutil
 import sys
 from pathlib import Path
 
-__all__ = ["publish", "recover", "same_file_system", "staging_folder"]
+__all__ = ["publish", "recover", "staging_folder"]
 
 _RENAME_EXCHANGE = 2
 _AT_FDCWD = -100
@@ -91,31 +87,15 @@ def _exchange(a: Path, b: Path) -> bool:
     return False  # e.g. a file system without the flag: fall back to two renames
 
 
-def same_file_system(a: Path, b: Path) -> bool:
-    """Whether a folder can be renamed from under ``a`` to under ``b`` (both exist)."""
-    return a.stat().st_dev == b.stat().st_dev
-
-
-def publish(staging: Path, out_dir: Path, keep: Path | None = None) -> None:
-    """Put the verified site in ``staging`` at ``out_dir``; the site it replaces is moved
-    to ``keep`` (on the same file system; for the next build's staging copy,
-    :mod:`.mirror`) or deleted."""
-
-    def set_aside(old: Path) -> None:
-        if keep is None:
-            shutil.rmtree(old)
-            return
-        if keep.exists():
-            shutil.rmtree(keep)
-        os.rename(old, keep)
-
+def publish(staging: Path, out_dir: Path) -> None:
+    """Put the verified site in ``staging`` at ``out_dir``; delete the site it replaces."""
     if not out_dir.exists():
         os.rename(staging, out_dir)
         return
     if _exchange(staging, out_dir):
-        set_aside(staging)  # now the previous site
+        shutil.rmtree(staging)  # now the previous site
         return
     old = out_dir.parent / f".{out_dir.name}.old-{os.getpid()}"
     os.rename(out_dir, old)
     os.rename(staging, out_dir)
-    set_aside(old)
+    shutil.rmtree(old)

@@ -20,6 +20,7 @@ import traceback
 from dataclasses import dataclass, replace
 from pathlib import Path
 
+from builder.analysis.catalogue_checks import check_component, failure_lines
 from builder.analysis.results import compute_pair
 from builder.analysis.second_opinion import second_opinion
 from builder.catalogue.loader import Catalogue
@@ -102,6 +103,9 @@ class ComponentTask:
 class ComponentOutput:
     figure: Figure
     code_version: str
+    #: Its failed reference checks, located (file, entry, check): a pair of a component
+    #: that fails one is withheld (:func:`builder.analysis.catalogue_checks.failed_sets`).
+    failures: tuple[str, ...] = ()
 
 
 def pair_task(catalogue: Catalogue, pair_id: str, settings: SiteSettings,
@@ -151,6 +155,9 @@ def _compute_and_draw(task: PairTask) -> PairOutput:
 
 
 def run_component(task: ComponentTask) -> ComponentOutput:
-    """Draw one component's figure."""
+    """Draw one component's figure and check its vapour pressure against the references
+    (kept with the figure in the cache: the reference libraries are not loaded again for
+    an unchanged component)."""
     component = task.catalogue.components[task.component_id]
-    return ComponentOutput(component_figure(component, task.settings), code_version())
+    return ComponentOutput(component_figure(component, task.settings), code_version(),
+                           failure_lines(check_component(component)))
