@@ -122,6 +122,39 @@ def _z_roots_flat(a: FloatArray, b: FloatArray) -> tuple[FloatArray, FloatArray]
     return liquid, vapour
 
 
+class _Mixing:
+    """The van der Waals one-fluid mixing of Peng–Robinson at given points, and ``ln φ``
+    from a compressibility factor: the parts :func:`pr_ln_phi` and
+    :func:`pr_ln_phi_phases` share (the same arithmetic, in the same order)."""
+
+    def __init__(self, x: FloatArray, T: FloatArray, P: FloatArray,
+                 Tc_K: tuple[float, float], Pc_Pa: tuple[float, float],
+                 omega: tuple[float, float], kij: float) -> None:
+        R = GAS_CONSTANT_J_PER_MOL_K
+        a1, b1 = pr_pure_ab(T, Tc_K[0], Pc_Pa[0], omega[0])
+        a2, b2 = pr_pure_ab(T, Tc_K[1], Pc_Pa[1], omega[1])
+        a12 = np.sqrt(a1 * a2) * (1.0 - kij)
+        x2 = 1.0 - x
+        self.a = x * x * a1 + 2.0 * x * x2 * a12 + x2 * x2 * a2
+        self.b = x * b1 + x2 * b2
+        self.A = self.a * P / (R * T) ** 2
+        self.B = self.b * P / (R * T)
+        self.terms = ((b1, x * a1 + x2 * a12), (b2, x * a12 + x2 * a2))
+
+    def ln_phi(self, Z: FloatArray) -> tuple[FloatArray, FloatArray, FloatArray]:
+        """``ln φ1, ln φ2`` and ``Z`` at the compressibility factor ``Z`` of each point."""
+        A, B = self.A, self.B
+        log_term = np.log((Z + (1.0 + _SQRT2) * B) / (Z + (1.0 - _SQRT2) * B))
+        common = -np.log(Z - B)
+        factor = A / (2.0 * _SQRT2 * B)
+        out = []
+        for bi, sum_a in self.terms:
+            ratio = bi / self.b
+            out.append(ratio * (Z - 1.0) + common
+                       - factor * (2.0 * sum_a / self.a - ratio) * log_term)
+        return out[0], out[1], Z
+
+
 def pr_ln_phi(x1: ArrayLike, T_K: ArrayLike, P_Pa: ArrayLike,
               Tc_K: tuple[float, float], Pc_Pa: tuple[float, float],
               omega: tuple[float, float], kij: float, phase: str
@@ -141,25 +174,9 @@ def pr_ln_phi(x1: ArrayLike, T_K: ArrayLike, P_Pa: ArrayLike,
     x = np.asarray(x1, dtype=float)
     T = np.asarray(T_K, dtype=float)
     P = np.asarray(P_Pa, dtype=float)
-    R = GAS_CONSTANT_J_PER_MOL_K
-    a1, b1 = pr_pure_ab(T, Tc_K[0], Pc_Pa[0], omega[0])
-    a2, b2 = pr_pure_ab(T, Tc_K[1], Pc_Pa[1], omega[1])
-    a12 = np.sqrt(a1 * a2) * (1.0 - kij)
-    x2 = 1.0 - x
-    a = x * x * a1 + 2.0 * x * x2 * a12 + x2 * x2 * a2
-    b = x * b1 + x2 * b2
-    A = a * P / (R * T) ** 2
-    B = b * P / (R * T)
-    z_liquid, z_vapour = pr_z_roots(A, B)
-    Z = z_liquid if phase == "liquid" else z_vapour
-    log_term = np.log((Z + (1.0 + _SQRT2) * B) / (Z + (1.0 - _SQRT2) * B))
-    common = -np.log(Z - B)
-    factor = A / (2.0 * _SQRT2 * B)
-    out = []
-    for bi, sum_a in ((b1, x * a1 + x2 * a12), (b2, x * a12 + x2 * a2)):
-        ratio = bi / b
-        out.append(ratio * (Z - 1.0) + common - factor * (2.0 * sum_a / a - ratio) * log_term)
-    return out[0], out[1], Z
+    mix = _Mixing(x, T, P, Tc_K, Pc_Pa, omega, kij)
+    z_liquid, z_vapour = pr_z_roots(mix.A, mix.B)
+    return mix.ln_phi(z_liquid if phase == "liquid" else z_vapour)
 
 
 def pr_ln_phi_phases(z1: FloatArray, T_K: FloatArray, P_Pa: FloatArray,
@@ -181,26 +198,9 @@ def pr_ln_phi_phases(z1: FloatArray, T_K: FloatArray, P_Pa: FloatArray,
     >>> [round(float(v), 4) for v in l1], round(float(z[1]), 4)
     ([0.3982, -0.1244], 0.8136)
     """
-    x, T, P = z1, T_K, P_Pa
-    R = GAS_CONSTANT_J_PER_MOL_K
-    a1, b1 = pr_pure_ab(T, Tc_K[0], Pc_Pa[0], omega[0])
-    a2, b2 = pr_pure_ab(T, Tc_K[1], Pc_Pa[1], omega[1])
-    a12 = np.sqrt(a1 * a2) * (1.0 - kij)
-    x2 = 1.0 - x
-    a = x * x * a1 + 2.0 * x * x2 * a12 + x2 * x2 * a2
-    b = x * b1 + x2 * b2
-    A = a * P / (R * T) ** 2
-    B = b * P / (R * T)
-    z_liquid, z_vapour = _z_roots_flat(A, B)
-    Z = np.where(vapour, z_vapour, z_liquid)
-    log_term = np.log((Z + (1.0 + _SQRT2) * B) / (Z + (1.0 - _SQRT2) * B))
-    common = -np.log(Z - B)
-    factor = A / (2.0 * _SQRT2 * B)
-    out = []
-    for bi, sum_a in ((b1, x * a1 + x2 * a12), (b2, x * a12 + x2 * a2)):
-        ratio = bi / b
-        out.append(ratio * (Z - 1.0) + common - factor * (2.0 * sum_a / a - ratio) * log_term)
-    return out[0], out[1], Z
+    mix = _Mixing(z1, T_K, P_Pa, Tc_K, Pc_Pa, omega, kij)
+    z_liquid, z_vapour = _z_roots_flat(mix.A, mix.B)
+    return mix.ln_phi(np.where(vapour, z_vapour, z_liquid))
 
 
 @dataclass(frozen=True)
