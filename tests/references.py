@@ -8,11 +8,13 @@ of the same model.
 from __future__ import annotations
 
 import warnings
+from typing import Any
 
 import numpy as np
 
 from builder.catalogue.records import PairRecord
 from builder.thermo.activity import NRTL, UNIQUAC, Ideal, Margules, Swapped, Wilson
+from builder.thermo.cubic import CubicMixture
 
 warnings.filterwarnings("ignore")
 
@@ -148,3 +150,29 @@ def _thermo_excess_model(model: object) -> object:
 
 __all__ = ["COOLPROP_HEOS", "coolprop_psat_Pa", "thermo_flasher", "thermo_gammas",
            "van_laar_closed_form"]
+
+
+def thermo_pr_flasher(mixture: CubicMixture, molar_masses: tuple[float, float]) -> Any:
+    """thermo's FlashVL with Peng–Robinson (PRMIX) in both phases, from the same critical
+    constants, acentric factors and k12 as ``mixture`` (a ``CubicMixture``); the heat
+    capacities are placeholders (they do not enter a VF = 0 or 1 flash at given T or P)."""
+    from thermo import (
+        PRMIX,
+        CEOSGas,
+        CEOSLiquid,
+        ChemicalConstantsPackage,
+        FlashVL,
+        HeatCapacityGas,
+        PropertyCorrelationsPackage,
+    )
+
+    m = mixture
+    constants = ChemicalConstantsPackage(Tcs=list(m.Tc_K), Pcs=list(m.Pc_Pa),
+                                         omegas=list(m.omega), MWs=list(molar_masses))
+    cp = [HeatCapacityGas(poly_fit=(50.0, 1000.0, [0, 0, 0, 0, 75.0])) for _ in range(2)]
+    kwargs = dict(Tcs=list(m.Tc_K), Pcs=list(m.Pc_Pa), omegas=list(m.omega),
+                  kijs=[[0, m.kij], [m.kij, 0]])
+    return FlashVL(constants, PropertyCorrelationsPackage(constants=constants,
+                                                          HeatCapacityGases=cp),
+                   liquid=CEOSLiquid(PRMIX, kwargs, HeatCapacityGases=cp),
+                   gas=CEOSGas(PRMIX, kwargs, HeatCapacityGases=cp))

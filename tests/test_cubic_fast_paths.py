@@ -22,6 +22,7 @@ from builder.analysis import curves
 from builder.thermo import cubic_equilibrium as ce
 from builder.thermo import equilibrium as eq
 from builder.thermo.cubic import CubicMixture, pr_ln_phi, pr_ln_phi_phases, pr_z_roots
+from tests.references import thermo_pr_flasher
 
 PROPANE_BUTANE = ((369.83, 425.12), (4.248e6, 3.796e6), (0.152, 0.200), 0.0033)
 
@@ -139,28 +140,9 @@ def test_isotherm_bubble_pressures_against_thermo_flash(systems: dict[str, eq.Bi
     """Reference: thermo.FlashVL with PRMIX in both phases (T, VF = 0), point by point;
     ours one vectorised call for the whole isotherm at 90 °C (near propane's critical
     temperature, 96.7 °C)."""
-    from thermo import (
-        PRMIX,
-        CEOSGas,
-        CEOSLiquid,
-        ChemicalConstantsPackage,
-        FlashVL,
-        HeatCapacityGas,
-        PropertyCorrelationsPackage,
-    )
-
     system = systems["propane--n-butane"]
-    m = system.vapour
-    assert isinstance(m, CubicMixture)
-    constants = ChemicalConstantsPackage(Tcs=list(m.Tc_K), Pcs=list(m.Pc_Pa),
-                                         omegas=list(m.omega), MWs=[44.1, 58.12])
-    cp = [HeatCapacityGas(poly_fit=(50.0, 1000.0, [0, 0, 0, 0, 75.0])) for _ in range(2)]
-    kwargs = dict(Tcs=list(m.Tc_K), Pcs=list(m.Pc_Pa), omegas=list(m.omega),
-                  kijs=[[0, m.kij], [m.kij, 0]])
-    flash = FlashVL(constants, PropertyCorrelationsPackage(constants=constants,
-                                                           HeatCapacityGases=cp),
-                    liquid=CEOSLiquid(PRMIX, kwargs, HeatCapacityGases=cp),
-                    gas=CEOSGas(PRMIX, kwargs, HeatCapacityGases=cp))
+    assert isinstance(system.vapour, CubicMixture)
+    flash = thermo_pr_flasher(system.vapour, (44.1, 58.12))
     x = np.linspace(0.05, 0.95, 7)
     ours = ce.bubble_pressure(system, x, np.full(x.size, 363.15))
     assert ours.converged.all()

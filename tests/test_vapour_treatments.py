@@ -19,8 +19,9 @@ from builder.errors import CatalogueErrors
 from builder.thermo import equilibrium as eq
 from builder.thermo import virial
 from builder.thermo.activity import Ideal
-from builder.thermo.cubic import pr_ln_phi
+from builder.thermo.cubic import CubicMixture, pr_ln_phi
 from builder.thermo.vapour import IDEAL_GAS, VirialVapour
+from tests.references import thermo_pr_flasher
 
 # Our Tsonopoulos classes as the chemicals package spells them.
 _CHEMICALS_CLASS = {
@@ -221,26 +222,9 @@ def test_peng_robinson_fugacity_against_thermo(T_K: float, P_Pa: float, z1: floa
 def test_peng_robinson_bubble_and_dew_against_thermo_flash(systems: dict[str, eq.BinarySystem]
                                                            ) -> None:
     """Reference: thermo.FlashVL with Peng–Robinson (PRMIX) in both phases, same inputs."""
-    from thermo import (
-        CEOSGas,
-        CEOSLiquid,
-        ChemicalConstantsPackage,
-        FlashVL,
-        HeatCapacityGas,
-        PropertyCorrelationsPackage,
-    )
-
     system = systems["propane--n-butane"]
-    m = system.vapour
-    constants = ChemicalConstantsPackage(Tcs=list(m.Tc_K), Pcs=list(m.Pc_Pa),
-                                         omegas=list(m.omega), MWs=[44.1, 58.12])
-    cp = [HeatCapacityGas(poly_fit=(50.0, 1000.0, [0, 0, 0, 0, 75.0])) for _ in range(2)]
-    kwargs = dict(Tcs=list(m.Tc_K), Pcs=list(m.Pc_Pa), omegas=list(m.omega),
-                  kijs=[[0, m.kij], [m.kij, 0]])
-    flash = FlashVL(constants, PropertyCorrelationsPackage(constants=constants,
-                                                           HeatCapacityGases=cp),
-                    liquid=CEOSLiquid(PRMIX_class(), kwargs, HeatCapacityGases=cp),
-                    gas=CEOSGas(PRMIX_class(), kwargs, HeatCapacityGases=cp))
+    assert isinstance(system.vapour, CubicMixture)
+    flash = thermo_pr_flasher(system.vapour, (44.1, 58.12))
     for P in (1.0e6, 2.0e6):
         for x in (0.25, 0.5):
             ref = flash.flash(P=P, VF=0, zs=[x, 1 - x])
@@ -250,12 +234,6 @@ def test_peng_robinson_bubble_and_dew_against_thermo_flash(systems: dict[str, eq
             ref_dew = flash.flash(P=P, VF=1, zs=[x, 1 - x])
             dew = eq.dew_temperature(system, [x], P)
             assert dew.T_K[0] == pytest.approx(ref_dew.T, abs=1e-6)
-
-
-def PRMIX_class() -> type:
-    from thermo import PRMIX
-
-    return PRMIX
 
 
 _COOLPROP_NAMES = {"propane": "Propane", "n-butane": "n-Butane", "ethane": "Ethane",
