@@ -17,7 +17,7 @@ from dataclasses import replace
 import numpy as np
 from numpy.typing import NDArray
 
-from builder.analysis import curves
+from builder.analysis import curves, dew_branches
 from builder.analysis.azeotropes import search_grid
 from builder.analysis.checks import check_pair
 from builder.analysis.distillation import Split, quick_look, quick_look_compositions
@@ -100,6 +100,8 @@ def _condition(catalogue: Catalogue, pair: PairRecord, kind: str, value: float
         presolved = rest[0] if rest else None
         curve = curves.from_bubble(kind, system, curve_points)
         phases = analyse(system, pair.model, isobar, value, curve, search_points)
+    # Enough points on each one-liquid stretch beside a three-phase line for its dew branch.
+    curve, phases, added = dew_branches.refine(system, pair.model, isobar, value, curve, phases)
     warnings = list(phases.warnings)
     found = phases.azeotropes
     three_phase = phases.three_phase
@@ -116,7 +118,8 @@ def _condition(catalogue: Catalogue, pair: PairRecord, kind: str, value: float
     if failed:
         warnings.append(f"{failed} of {curve.x1.size} points did not converge and are not drawn")
     if extrapolated.any():
-        share = extrapolated.mean()
+        # Of the composition grid, as on a curve without added points (:mod:`.dew_branches`).
+        share = extrapolated[~added].mean() or extrapolated.mean()
         warnings.append(f"{share:.0%} of the curve lies outside the validity range of a "
                         "correlation (drawn dashed)")
     for component in (c1, c2):
