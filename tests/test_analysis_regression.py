@@ -41,13 +41,13 @@ unchanged.  n-butane--n-pentane regenerated alone when its k12 went from the DEC
 Three entries regenerated alone when the one-liquid stretches beside a three-phase line
 came to get their own bubble points (``builder.analysis.dew_branches``: a stretch with
 fewer than 12 drawable grid points gets 27, so that its dew branch is drawn from the pure
-component's boiling point to the three-phase line): isobutanol--water and water--1-butanol
-(water-rich and butanol-rich stretch respectively, 5-6 grid points each) and
-water--n-butyl-acetate (the ester-rich stretch, 2-3 grid points).  Each condition of
+component's boiling point to the three-phase line): the water-rich stretch of
+isobutanol--water and water--1-butanol (5-6 grid points) and of water--n-butyl-acetate
+(2-3 grid points).  Each condition of
 those pairs has 27 more points (134 instead of 107; drawable, converged and stable counts
 up by 27; the extrapolated count up by 27 where the whole curve is extrapolated), and
 water--n-butyl-acetate's smallest relative volatility at 101.325 and 30 kPa now lies at
-the ester-rich three-phase liquid (x1 0.99788 and 0.99876, alpha12 lower by 0.3 % and
+the water-rich three-phase liquid (x1 0.99788 and 0.99876, alpha12 lower by 0.3 % and
 1.3 %) instead of the nearest grid point (0.998, 0.999).  The sampled curve, azeotropes,
 three-phase points, traces, warnings and checks are unchanged, and so is every other
 entry.
