@@ -30,8 +30,9 @@ __all__ = ["ATMOSPHERIC_PA", "RESULTS_VERSION", "Check", "ConditionResult", "Pai
 
 #: Version of the record layout and of its numbers (see the module docstring).
 #: 1: the first layout, with fields added over time; 2: every field always present,
-#: three-phase points and pressure traces solved from their own equations.
-RESULTS_VERSION = 2
+#: three-phase points and pressure traces solved from their own equations; 3: bubble points
+#: added to sparse one-liquid stretches beside a three-phase line (:mod:`.dew_branches`).
+RESULTS_VERSION = 3
 
 ATMOSPHERIC_PA = 101325.0
 
