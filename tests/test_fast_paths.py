@@ -4,7 +4,9 @@ against outside references.
 References: the ``thermo`` package's UNIFAC (for the layout of long arrays of points at
 their own temperatures); the closed form of the symmetric Margules liquid (a split for
 A > 2, the spinodal curvature ``1 - A/2`` at x1 = 0.5; common practice); the project's
-own tangent-plane test and successive substitution (the former methods, kept).
+own tangent-plane test and successive substitution (the former methods, kept); for the
+fitted pairs' isotherms, the bracketed search of ln α12 = 0 along bubble pressures (the
+former azeotrope path there).
 """
 
 from __future__ import annotations
@@ -15,14 +17,17 @@ import numpy as np
 import pytest
 
 from builder.analysis import curves
+from builder.analysis.azeotropes import find_azeotropes
 from builder.analysis.convexity import MARGIN, convex_temperatures
 from builder.analysis.phases import analyse, analyse_isobars
 from builder.analysis.point import system_for
 from builder.analysis.stability import binodal
 from builder.catalogue.loader import Catalogue
 from builder.catalogue.predictive import predicted_pair, predictive_model
+from builder.thermo import equilibrium as eq
 from builder.thermo.activity import Margules
 from builder.thermo.bubble_vapour import _substitution, bubble_vapour
+from builder.thermo.solvers import solve_bracketed
 from builder.thermo.vapour import VirialComponent, VirialVapour
 from tests.test_unifac import _thermo_ln_gamma  # thermo's UNIFAC for the same subgroups
 
@@ -88,6 +93,41 @@ def test_bubble_vapour_newton_matches_substitution() -> None:
     assert fast[3].all() and slow[3].all()
     assert np.max(np.abs(fast[2] - slow[2])) <= 1e-12
     assert np.allclose(fast[0], slow[0], rtol=1e-11) and np.allclose(fast[1], slow[1], rtol=1e-11)
+    # Without the pure ends every point takes Newton, and the solve skips its masks: the
+    # same numbers as the masked solve of the same points.
+    inner = slice(6, None)
+    unmasked = bubble_vapour(vapour, p1[inner], p2[inner], T[inner], P[inner], ps1[inner],
+                             ps2[inner])
+    for a, b in zip(unmasked, fast, strict=True):
+        assert np.array_equal(a, b[inner])
+
+
+@pytest.mark.parametrize("pair_id", ["acetone--methanol", "chloroform--methanol",
+                                     "acetone--chloroform"])
+def test_isotherm_azeotropes_from_their_own_equations(catalogue: Catalogue,
+                                                      pair_id: str) -> None:
+    """Azeotropes on the published isotherms by Newton on (x1, ln P)
+    (:func:`azeotrope_points_isotherm`) against the former path, a bracketed search of
+    ln α12 = 0 along bubble pressures: the same roots to 1e-10 in x1 and 1e-10 relative in
+    P, the same kinds."""
+    pair = catalogue.pairs[pair_id]
+    system = system_for(pair, catalogue)
+    assert pair.isotherms_K
+    for T in pair.isotherms_K:
+        search = find_azeotropes(system, T_K=T)
+        assert search.complete and search.azeotropes
+        for az in search.azeotropes:
+            def ln_alpha(u: np.ndarray, mask: np.ndarray, T: float = T) -> np.ndarray:
+                return np.log(eq.bubble_pressure(system, u, T).relative_volatility(system))
+
+            root = solve_bracketed(ln_alpha, np.array([az.x1 - 0.02]),
+                                   np.array([az.x1 + 0.02]), xtol=1e-13, ftol=1e-14)
+            assert root.converged.all()
+            at = eq.bubble_pressure(system, root.root, T)
+            assert az.x1 == pytest.approx(float(root.root[0]), abs=1e-10)
+            assert az.P_Pa == pytest.approx(float(at.P_Pa[0]), rel=1e-10)
+            rises = float(at.P_Pa[0]) >= max(eq.bubble_pressure(system, [0.0, 1.0], T).P_Pa)
+            assert az.kind == ("maximum-pressure" if rises else "minimum-pressure")
 
 
 def test_isobars_analysed_together_match_one_by_one(catalogue: Catalogue) -> None:

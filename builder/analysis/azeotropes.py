@@ -20,12 +20,13 @@ of the bubble line (the Gibbs-Konovalov theorem).
 
 from __future__ import annotations
 
+import functools
 from dataclasses import dataclass
 
 import numpy as np
 from numpy.typing import NDArray
 
-from builder.analysis.phase_lines import azeotrope_points
+from builder.analysis.phase_lines import azeotrope_points, azeotrope_points_isotherm
 from builder.thermo import equilibrium as eq
 from builder.thermo.solvers import Function, solve_bracketed
 
@@ -77,9 +78,17 @@ def search_grid(points: int = 401) -> FloatArray:
     >>> float(g[0]), float(g[1]), float(g[-1])
     (0.0, 1e-06, 1.0)
     """
+    return _search_grid(points)
+
+
+@functools.lru_cache(maxsize=4)
+def _search_grid(points: int) -> FloatArray:
+    """:func:`search_grid`, made once per size (read-only: every condition shares it)."""
     near = np.logspace(-6, -2, 9)
-    return np.unique(np.concatenate([[0.0, 1.0], near, 1.0 - near,
+    grid = np.unique(np.concatenate([[0.0, 1.0], near, 1.0 - near,
                                      np.linspace(0.0, 1.0, points)]))
+    grid.flags.writeable = False
+    return grid
 
 
 def _ln_alpha(system: eq.BinarySystem, result: eq.EquilibriumResult) -> FloatArray:
@@ -87,32 +96,36 @@ def _ln_alpha(system: eq.BinarySystem, result: eq.EquilibriumResult) -> FloatArr
 
 
 def _roots(system: eq.BinarySystem, lo: FloatArray, hi: FloatArray, f_lo: FloatArray,
-           f_hi: FloatArray, T_lo: FloatArray, T_hi: FloatArray, P_Pa: float | None,
-           residual: Function) -> tuple[FloatArray, NDArray[np.bool_], FloatArray]:
-    """The root of ``ln α12`` in each bracket ``[lo, hi]``, and its temperature where the
-    solve gave it (NaN elsewhere).
+           f_hi: FloatArray, at_lo: FloatArray, at_hi: FloatArray, P_Pa: float | None,
+           T_K: float | None, residual: Function
+           ) -> tuple[FloatArray, NDArray[np.bool_], FloatArray, FloatArray]:
+    """The root of ``ln α12`` in each bracket ``[lo, hi]``, and its temperature and
+    pressure where the solve gave them (NaN elsewhere).
 
-    On an isobar the azeotrope's own equations (:func:`.phase_lines.azeotrope_points`)
-    are solved from the secant estimate, all brackets at once; a root that does not
-    converge inside its bracket, and every root on an isotherm (where a bubble point
-    is explicit), is found by the bracketed search along bubble points.
+    The azeotrope's own equations (:func:`.phase_lines.azeotrope_points` on an isobar,
+    :func:`.phase_lines.azeotrope_points_isotherm` on an isotherm) are solved from the
+    secant estimate, all brackets at once (``at_lo``, ``at_hi``: the bubble temperatures,
+    or on an isotherm the bubble pressures, at the brackets' ends); a root that does not
+    converge inside its bracket is found by the bracketed search along bubble points.
     """
-    root = np.full(lo.size, np.nan)
-    T = np.full(lo.size, np.nan)
-    converged = np.zeros(lo.size, dtype=bool)
+    weight = f_lo / (f_lo - f_hi)
+    guess = lo + weight * (hi - lo)
     if P_Pa is not None:
-        weight = f_lo / (f_lo - f_hi)
-        points = azeotrope_points(system, P_Pa, lo + weight * (hi - lo),
-                                  T_lo + weight * (T_hi - T_lo))
-        converged = points.converged & (points.x1 >= lo) & (points.x1 <= hi)
-        root = np.where(converged, points.x1, np.nan)
-        T = np.where(converged, points.T_K, np.nan)
+        points = azeotrope_points(system, P_Pa, guess, at_lo + weight * (at_hi - at_lo))
+    else:
+        assert T_K is not None
+        points = azeotrope_points_isotherm(system, T_K, guess, np.exp(
+            np.log(at_lo) + weight * (np.log(at_hi) - np.log(at_lo))))
+    converged = points.converged & (points.x1 >= lo) & (points.x1 <= hi)
+    root = np.where(converged, points.x1, np.nan)
+    T = np.where(converged, points.T_K, np.nan)
+    P = np.where(converged, points.P_Pa, np.nan)
     rest = np.flatnonzero(~converged)
     if rest.size:
         search = solve_bracketed(residual, lo[rest], hi[rest], xtol=1e-13, ftol=1e-14)
         root[rest] = search.root
         converged[rest] = search.converged
-    return root, converged, T
+    return root, converged, T, P
 
 
 def find_azeotropes(system: eq.BinarySystem, *, P_Pa: float | None = None,
@@ -171,7 +184,7 @@ def find_azeotropes(system: eq.BinarySystem, *, P_Pa: float | None = None,
     change = np.flatnonzero((np.sign(fa) * np.sign(fb) < 0) & adjacent & resolvable)
     lo, hi = x[idx[change]], x[idx[change + 1]]
     falling = fa[change] > 0  # α from above 1 to below 1 with increasing x1
-    exact = [i for i in idx if f[i] == 0.0 and 0.0 < x[i] < 1.0]
+    exact = idx[(f[idx] == 0.0) & (x[idx] > 0.0) & (x[idx] < 1.0)].tolist()
 
     azeotropes: list[Azeotrope] = []
     unresolved = 0
@@ -179,15 +192,13 @@ def find_azeotropes(system: eq.BinarySystem, *, P_Pa: float | None = None,
         def residual(u: FloatArray, mask: NDArray[np.bool_]) -> FloatArray:
             return _ln_alpha(system, solve(u))
 
-        root, converged, T_root = _roots(system, lo, hi, fa[change], fb[change],
-                                         result.T_K[idx[change]], result.T_K[idx[change + 1]],
-                                         P_Pa, residual)
-        # The azeotrope's own solve gave T (and P is the isobar's); the other roots'
-        # bubble points are solved.
-        T_at, P_at, ok_at = T_root.copy(), np.full(lo.size, np.nan), converged.copy()
-        if P_Pa is not None:
-            P_at[:] = P_Pa
-        other = np.flatnonzero(~np.isfinite(T_root))
+        ends, condition = idx[change], result.T_K if isobar else result.P_Pa
+        root, converged, T_at, P_at = _roots(system, lo, hi, fa[change], fb[change],
+                                             condition[ends], condition[ends + 1], P_Pa, T_K,
+                                             residual)
+        # The azeotrope's own solve gave T and P; the other roots' bubble points are solved.
+        ok_at = converged.copy()
+        other = np.flatnonzero(~np.isfinite(T_at))
         if other.size:
             at = solve(root[other])
             T_at[other], P_at[other], ok_at[other] = at.T_K, at.P_Pa, at.converged

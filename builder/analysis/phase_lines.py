@@ -36,7 +36,8 @@ from numpy.typing import ArrayLike, NDArray
 
 from builder.thermo import equilibrium as eq
 
-__all__ = ["AzeotropePoints", "ThreePhasePoints", "azeotrope_points", "three_phase_points"]
+__all__ = ["AzeotropePoints", "ThreePhasePoints", "azeotrope_points",
+           "azeotrope_points_isotherm", "three_phase_points"]
 
 FloatArray = NDArray[np.float64]
 BoolArray = NDArray[np.bool_]
@@ -46,6 +47,8 @@ BoolArray = NDArray[np.bool_]
 _STEP_TOL = 1e-13
 _RESIDUAL_TOL = 1e-14
 _MAX_STEP = np.array([1.0, 1.0, 20.0])
+#: On an isotherm: 1 in log-odds and 0.5 in ln P.
+_MAX_STEP_ISOTHERM = np.array([1.0, 0.5])
 
 
 def _x(s: FloatArray) -> FloatArray:
@@ -58,9 +61,12 @@ def _s(x: FloatArray) -> FloatArray:
 
 
 def _newton(equations: Callable[[FloatArray, FloatArray], FloatArray], u0: FloatArray,
-            P: FloatArray, maxiter: int, towards_end: int | None = None
-            ) -> tuple[FloatArray, BoolArray, FloatArray]:
+            P: FloatArray, maxiter: int, towards_end: int | None = None,
+            limit: FloatArray | None = None) -> tuple[FloatArray, BoolArray, FloatArray]:
     """Damped Newton on ``equations(u, P) = 0`` for every row of ``u`` (n, m) at once.
+
+    ``P``: the fixed condition of each row (a pressure, or a temperature on an isotherm);
+    ``limit``: the largest step of each unknown (default 1 in log-odds, 20 K).
 
     Returns the solution, a convergence flag per row and the Jacobian at the solution.
     ``towards_end``: the column of a log-odds unknown ``s`` whose equation 0 tends to a
@@ -77,7 +83,7 @@ def _newton(equations: Callable[[FloatArray, FloatArray], FloatArray], u0: Float
     f_before = np.full(n, np.nan)
     s_before = np.full(n, np.nan)
     jac = np.full((n, m, m), np.nan)
-    limit = _MAX_STEP[-m:]
+    limit = _MAX_STEP[-m:] if limit is None else limit
     for _ in range(maxiter):
         idx = np.flatnonzero(active)
         if idx.size == 0:
@@ -165,6 +171,49 @@ def azeotrope_points(system: eq.BinarySystem, P_Pa: ArrayLike, x1_guess: ArrayLi
     x = _x(u[:, 0])
     ok &= np.isfinite(slope) & (x > 0.0) & (x < 1.0)
     return AzeotropePoints(P_Pa=P, x1=x, T_K=u[:, 1], falling=slope < 0, converged=ok)
+
+
+def azeotrope_points_isotherm(system: eq.BinarySystem, T_K: float, x1_guess: ArrayLike,
+                              P_guess_Pa: ArrayLike, *, maxiter: int = 20) -> AzeotropePoints:
+    """Solve ``α12 = 1`` on the bubble curve of the isotherm ``T_K``, one root per guess.
+
+    Unknowns ``(s, ln P)`` (``s`` the log-odds of x1) with the equations of
+    :func:`azeotrope_points`, ``ln K1 - ln K2 = 0`` and ``ln(x1 K1 + x2 K2) = 0``, at
+    the fixed temperature; ``falling``: ``ln α12`` falls with x1 along the bubble curve
+    (a pressure maximum).
+
+    Symmetric Margules (A = 1) with equal vapour pressures: the azeotrope at x1 = 0.5,
+    where ``P = P_sat exp(A/4)``:
+
+    >>> from builder.thermo.activity import Margules
+    >>> from builder.thermo.vapour_pressure import Antoine
+    >>> vp = Antoine(A=11.0, B=3000.0, C=0.0, T_min_K=200.0, T_max_K=500.0)
+    >>> s = eq.BinarySystem(vp, vp, Margules.constant(1.0, 1.0))
+    >>> r = azeotrope_points_isotherm(s, 300.0, [0.3], [2.0e4])
+    >>> P = float(np.exp(11.0 - 3000.0 / 300.0 + 0.25))
+    >>> round(float(r.x1[0]), 12), round(float(r.P_Pa[0]) / P, 12), bool(r.falling[0])
+    (0.5, 1.0, True)
+    """
+    x0, P0 = np.broadcast_arrays(np.asarray(x1_guess, dtype=float),
+                                 np.asarray(P_guess_Pa, dtype=float))
+    x0, P0 = x0.ravel(), P0.ravel()
+    T = np.full(x0.size, float(T_K))
+
+    def equations(u: FloatArray, Tu: FloatArray) -> FloatArray:
+        x = _x(u[:, 0])
+        with np.errstate(all="ignore"):
+            K1, K2 = eq.k_values(system, x, Tu, np.exp(u[:, 1]))
+            return np.stack([np.log(K1) - np.log(K2), np.log(x * K1 + (1.0 - x) * K2)],
+                            axis=1)
+
+    u, ok, J = _newton(equations, np.stack([_s(x0), np.log(P0)], axis=1), T, maxiter,
+                       towards_end=0, limit=_MAX_STEP_ISOTHERM)
+    with np.errstate(all="ignore"):
+        slope = J[:, 0, 0] - J[:, 0, 1] * J[:, 1, 0] / J[:, 1, 1]
+    x = _x(u[:, 0])
+    ok &= np.isfinite(slope) & (x > 0.0) & (x < 1.0)
+    return AzeotropePoints(P_Pa=np.exp(u[:, 1]), x1=x, T_K=T, falling=slope < 0,
+                           converged=ok)
 
 
 @dataclass(frozen=True)

@@ -80,13 +80,17 @@ def bubble_vapour(vapour: VapourModel, p1: FloatArray, p2: FloatArray, T_K: Floa
     a1, a2, s = (v if np.shape(v) == p1.shape else np.broadcast_to(v, p1.shape)
                  for v in (a1, a2, s))
     with np.errstate(all="ignore"):
-        total = p1 + p2
-        has_vapour = np.isfinite(total) & (total > 0)
+        L = np.log(p1) - np.log(p2) + (a1 - a2)
         # The substitution's own path where the cap could bite, or where h' may vanish.
         capped = (np.maximum(np.abs(a1), np.abs(a2)) + np.abs(s) > LN_C_CAP) | ~(
             s < S_NEWTON)
+        if not capped.any() and np.isfinite(L).all():
+            # The usual case: every point has two positive, finite partial pressures (then
+            # L is finite) and no cap: Newton on every point, no masks.
+            return _newton_everywhere(p1, p2, a1, a2, s, L)
+        total = p1 + p2
+        has_vapour = np.isfinite(total) & (total > 0)
         inner = has_vapour & (p1 > 0) & (p2 > 0) & ~capped
-        L = np.log(p1) - np.log(p2) + (a1 - a2)
         u = np.where(inner, L, 0.0)
         step = np.zeros_like(u)
         for _ in range(NEWTON_STEPS):
@@ -112,6 +116,28 @@ def bubble_vapour(vapour: VapourModel, p1: FloatArray, p2: FloatArray, T_K: Floa
         for out, part in zip((q1, q2, y, ok), sub, strict=True):
             out[rest] = part
     return q1, q2, y, ok
+
+
+def _newton_everywhere(p1: FloatArray, p2: FloatArray, a1: FloatArray, a2: FloatArray,
+                       s: FloatArray, L: FloatArray
+                       ) -> tuple[FloatArray, FloatArray, FloatArray, BoolArray]:
+    """:func:`bubble_vapour`'s Newton solve where every point takes it (the same steps as
+    the masked solve, without its masks: a bubble-point solver calls this a few times per
+    trial temperature, and on small arrays the masks cost as much as the steps)."""
+    u = L
+    step = np.zeros_like(u)
+    for _ in range(NEWTON_STEPS):
+        y = 1.0 / (1.0 + np.exp(-u))
+        yy = y * (1.0 - y)
+        step = (u - L - s * (2.0 * y - 1.0)) / (1.0 - 2.0 * s * yy)
+        u = u - step
+        if not (np.abs(step) * yy > 0.25 * Y_TOLERANCE).any():
+            break
+    y = 1.0 / (1.0 + np.exp(-u))
+    ok = np.abs(step) * y * (1.0 - y) <= Y_TOLERANCE
+    q1 = p1 * np.exp(a1 - s * (1.0 - y) ** 2)
+    q2 = p2 * np.exp(a2 - s * y * y)
+    return q1, q2, q1 / (q1 + q2), ok
 
 
 def _substitution(vapour: VapourModel, p1: FloatArray, p2: FloatArray, T_K: FloatArray,

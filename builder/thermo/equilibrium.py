@@ -210,13 +210,18 @@ def k_values(
 
 def _as_points(a: ArrayLike, b: ArrayLike) -> tuple[FloatArray, FloatArray, tuple[int, ...]]:
     """Broadcast a composition and a condition to flat arrays of equal length."""
+    if (isinstance(a, np.ndarray) and a.ndim == 1 and a.dtype == np.float64
+            and isinstance(b, float)):
+        # The common call (a curve's compositions at one condition), without the general
+        # broadcast's fixed cost: the same arrays.
+        return a.copy(), np.full(a.shape, b), a.shape
     a_arr, b_arr = np.broadcast_arrays(np.asarray(a, dtype=float), np.asarray(b, dtype=float))
     shape = a_arr.shape
     return a_arr.ravel().astype(float), b_arr.ravel().astype(float), shape
 
 
 def _check_fractions(name: str, values: FloatArray) -> None:
-    if np.any(~np.isfinite(values)) or np.any((values < 0.0) | (values > 1.0)):
+    if not ((values >= 0.0).all() and (values <= 1.0).all()):  # NaN fails both
         bad = values[~((values >= 0.0) & (values <= 1.0))]
         raise ValueError(f"{name} must lie in [0, 1]; found {bad[:3].tolist()}")
 
@@ -296,6 +301,8 @@ def _phi(system: BinarySystem, y1: FloatArray, T: FloatArray, P: FloatArray
 
 
 def _reshape(result: EquilibriumResult, shape: tuple[int, ...]) -> EquilibriumResult:
+    if result.x1.shape == shape:  # 1-D points already (the usual call)
+        return result
     values = {f.name: getattr(result, f.name) for f in fields(result)}
     reshaped = {k: None if v is None else np.reshape(v, shape) for k, v in values.items()}
     return EquilibriumResult(**reshaped)  # type: ignore[arg-type]

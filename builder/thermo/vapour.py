@@ -138,11 +138,13 @@ class VirialVapour:
     component2: VirialComponent
     kij: float | None = None
     name: str = "virial"
-    _constants: FloatArray = field(init=False, repr=False, compare=False)
+    #: The correlation's constants of B11, B22 and B12 (in that order), so that one
+    #: evaluation gives all three (the solvers ask for them at every trial temperature),
+    #: flat and as columns for a 1-D array of temperatures.
+    _constants: virial.TsonopoulosConstants = field(init=False, repr=False, compare=False)
+    _columns: virial.TsonopoulosConstants = field(init=False, repr=False, compare=False)
 
     def __post_init__(self) -> None:
-        # The constants of B11, B22 and B12 as columns, so that one evaluation of the
-        # correlation gives all three (the solvers ask for them at every trial temperature).
         c1, c2 = self.component1, self.component2
         Tc, Pc, omega = virial.cross_constants((c1.Tc_K, c2.Tc_K), (c1.Pc_Pa, c2.Pc_Pa),
                                                (c1.Vc_m3_per_mol, c2.Vc_m3_per_mol),
@@ -150,16 +152,17 @@ class VirialVapour:
         both_polar = (c1.a or c1.b) and (c2.a or c2.b)
         a12 = 0.5 * (c1.a + c2.a) if both_polar else 0.0
         b12 = 0.5 * (c1.b + c2.b) if both_polar else 0.0
-        columns = np.array([[c1.Tc_K, c2.Tc_K, Tc], [c1.Pc_Pa, c2.Pc_Pa, Pc],
-                            [c1.omega, c2.omega, omega], [c1.a, c2.a, a12],
-                            [c1.b, c2.b, b12]], dtype=float)
-        object.__setattr__(self, "_constants", columns)
+        constants = virial.tsonopoulos_constants(
+            [c1.Tc_K, c2.Tc_K, Tc], [c1.Pc_Pa, c2.Pc_Pa, Pc], [c1.omega, c2.omega, omega],
+            [c1.a, c2.a, a12], [c1.b, c2.b, b12])
+        object.__setattr__(self, "_constants", constants)
+        object.__setattr__(self, "_columns", constants.for_ndim(1))
 
     def coefficients(self, T_K: ArrayLike) -> tuple[FloatArray, FloatArray, FloatArray]:
         """``B11, B22, B12`` in m³/mol at ``T_K`` (one evaluation of the correlation)."""
         T = np.asarray(T_K, dtype=float)
-        Tc, Pc, omega, a, b = (row.reshape((3,) + (1,) * T.ndim) for row in self._constants)
-        B = virial.second_virial_tsonopoulos(T, Tc, Pc, omega, a, b)
+        constants = self._columns if T.ndim == 1 else self._constants.for_ndim(T.ndim)
+        B = virial.second_virial_from_constants(T, constants)
         return B[0], B[1], B[2]
 
     def ln_phi(self, y1: ArrayLike, T_K: ArrayLike, P_Pa: ArrayLike) -> Pair:

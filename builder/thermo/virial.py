@@ -28,6 +28,8 @@ References
 
 from __future__ import annotations
 
+from dataclasses import dataclass, fields
+
 import numpy as np
 from numpy.typing import ArrayLike, NDArray
 
@@ -35,9 +37,12 @@ from builder.thermo.units import GAS_CONSTANT_J_PER_MOL_K
 
 __all__ = [
     "TSONOPOULOS_CLASSES",
+    "TsonopoulosConstants",
     "cross_constants",
     "reduced_dipole",
+    "second_virial_from_constants",
     "second_virial_tsonopoulos",
+    "tsonopoulos_constants",
     "tsonopoulos_polar_parameters",
     "virial_ln_phi",
 ]
@@ -132,17 +137,61 @@ def second_virial_tsonopoulos(T_K: ArrayLike, Tc_K: ArrayLike, Pc_Pa: ArrayLike,
     >>> round(float(second_virial_tsonopoulos(430.0, 405.65, 11.28e6, 0.252608, a, b)), 9)
     -9.6797e-05
     """
-    T = np.asarray(T_K, dtype=float)
-    r1 = np.asarray(Tc_K, dtype=float) / T  # 1/T_r, powers by multiplication (fast)
-    r2 = r1 * r1
-    r3 = r2 * r1
-    r6 = r3 * r3
-    r8 = r6 * r2
-    f0 = 0.1445 - 0.33 * r1 - 0.1385 * r2 - 0.0121 * r3 - 0.000607 * r8
-    f1 = 0.0637 + 0.331 * r2 - 0.423 * r3 - 0.008 * r8
-    reduced = f0 + np.asarray(omega) * f1 + np.asarray(a) * r6 - np.asarray(b) * r8
-    return np.asarray(reduced * GAS_CONSTANT_J_PER_MOL_K * np.asarray(Tc_K) / np.asarray(Pc_Pa),
-                      dtype=float)
+    return second_virial_from_constants(T_K, tsonopoulos_constants(Tc_K, Pc_Pa, omega, a, b))
+
+
+@dataclass(frozen=True)
+class TsonopoulosConstants:
+    """The Tsonopoulos correlation of one or more gases arranged as a polynomial in
+    ``r = 1/T_r``: ``B = scale (c0 + c1 r + c2 r² + c3 r³ + a r⁶ - c8 r⁸)`` with
+    ``c0 = 0.1445 + 0.0637 ω``, ``c2 = -0.1385 + 0.331 ω``, ``c3 = -0.0121 - 0.423 ω``,
+    ``c8 = 0.000607 + 0.008 ω + b`` and ``scale = R T_c / P_c`` [m³/mol] (the equation
+    of :func:`second_virial_tsonopoulos`, its terms gathered once so that each evaluation
+    costs a few array operations; the solvers evaluate B at every trial temperature)."""
+
+    Tc_K: FloatArray
+    scale_m3_per_mol: FloatArray
+    c0: FloatArray
+    c2: FloatArray
+    c3: FloatArray
+    a: FloatArray
+    c8: FloatArray
+
+    def for_ndim(self, ndim: int) -> TsonopoulosConstants:
+        """The same constants of k gases shaped (k, 1, ...), to broadcast against an array
+        of temperatures of ``ndim`` dimensions (the result then has k rows)."""
+        shape = (-1,) + (1,) * ndim
+        return TsonopoulosConstants(*(np.reshape(getattr(self, f.name), shape)
+                                      for f in fields(self)))
+
+
+def tsonopoulos_constants(Tc_K: ArrayLike, Pc_Pa: ArrayLike, omega: ArrayLike,
+                          a: ArrayLike = 0.0, b: ArrayLike = 0.0) -> TsonopoulosConstants:
+    """:class:`TsonopoulosConstants` of gases (arguments as :func:`second_virial_tsonopoulos`)."""
+    Tc, Pc, w, a_, b_ = (np.asarray(v, dtype=float) for v in (Tc_K, Pc_Pa, omega, a, b))
+    return TsonopoulosConstants(
+        Tc_K=Tc, scale_m3_per_mol=GAS_CONSTANT_J_PER_MOL_K * Tc / Pc,
+        c0=0.1445 + 0.0637 * w, c2=-0.1385 + 0.331 * w, c3=-0.0121 - 0.423 * w, a=a_,
+        c8=0.000607 + 0.008 * w + b_)
+
+
+def second_virial_from_constants(T_K: ArrayLike, constants: TsonopoulosConstants
+                                 ) -> FloatArray:
+    """``B`` [m³/mol] at ``T_K`` [K] from :func:`tsonopoulos_constants` (broadcast).
+
+    n-Butane (T_c 425.12 K, P_c 3.796 MPa, ω 0.200) at 300 K, as
+    :func:`second_virial_tsonopoulos`:
+
+    >>> k = tsonopoulos_constants(425.12, 3.796e6, 0.200)
+    >>> round(float(second_virial_from_constants(300.0, k)) * 1e6, 3)
+    -713.847
+    """
+    k = constants
+    r = k.Tc_K / np.asarray(T_K, dtype=float)  # 1/T_r
+    r2 = r * r
+    r6 = r2 * r2 * r2
+    reduced = k.c0 + r * (-0.33 + r * (k.c2 + r * k.c3)) + r6 * (k.a - r2 * k.c8)
+    return np.asarray(k.scale_m3_per_mol * reduced, dtype=float)
 
 
 def cross_constants(Tc_K: tuple[float, float], Pc_Pa: tuple[float, float],
