@@ -265,3 +265,36 @@ def test_the_fitted_figures_draw_the_water_rich_dew_branch(
     on_branch = max(int(((y1 > three.y1) & (y1 < 1.0)).sum()) for y1, _ in runs)
     assert on_branch >= 25  # before: two grid points between the line and pure water
     assert all(np.min(T) >= level - 1e-9 for _, T in runs)
+
+
+def test_the_second_opinion_draws_its_branch_and_compares_on_the_shared_grid(
+        catalogue: Catalogue, shipped_results: ShippedResults) -> None:
+    """The predicted overlay of a fitted page (water--n-butyl-acetate by modified UNIFAC
+    (Dortmund)) gets the same added points, and every added point is a bubble point of
+    the overlay's own model (thermo's UNIFAC with CoolProp's IAPWS-95 water: water's
+    partial pressure within 2.5 %, ideal vapour, as above).  The largest bubble-temperature
+    difference of two curves is taken where both have a point: water--1-butanol's stays at
+    a composition of the grid (an added point of one curve has no partner on the other)."""
+    from thermo.unifac import DOUFSG, UNIFAC
+
+    from builder.analysis.second_opinion import second_opinion
+
+    found = shipped_results["water--n-butyl-acetate"]
+    predicted = second_opinion(catalogue, found).predicted
+    assert predicted is not None and predicted.three_phase is not None
+    i = _branch(predicted, "high")
+    assert i.size >= 25  # the grid alone: 2 points above x1 = 0.998
+    added = dew_branches.added_points(predicted.curve.x1, predicted.three_phase)
+    assert added[i].sum() == 27
+    x, y, T = predicted.curve.x1[i], predicted.curve.y1[i], predicted.curve.T_K[i]
+    groups = {g: n for g, n in (catalogue.components["n-butyl-acetate"].groups.of("dortmund")
+                                or {}).items()}
+    ids = {group.group: number for number, group in DOUFSG.items()}
+    ge = UNIFAC.from_subgroups(T=350.0, xs=[0.5, 0.5], version=1,
+                               chemgroups=[{ids["H2O"]: 1}, {ids[g]: n for g, n in groups.items()}])
+    gamma_water = np.array([ge.to_T_xs(float(t), [float(v), 1.0 - float(v)]).gammas()[0]
+                            for v, t in zip(x, T, strict=True)])
+    water_pressure = x * gamma_water * coolprop_psat_Pa("water", T)
+    assert np.max(np.abs(water_pressure / (y * P_PA) - 1.0)) < 0.025
+    opinion = second_opinion(catalogue, shipped_results["water--1-butanol"])
+    assert opinion.x1_at_max in composition_grid()

@@ -30,7 +30,7 @@ from builder.analysis.phases import Phases
 from builder.thermo import equilibrium as eq
 from builder.thermo.activity import ActivityModel
 
-__all__ = ["MIN_STRETCH_POINTS", "refine", "stretch_compositions"]
+__all__ = ["MIN_STRETCH_POINTS", "added_points", "refine", "stretch_compositions"]
 
 FloatArray = NDArray[np.float64]
 
@@ -120,3 +120,21 @@ def refine(system: eq.BinarySystem, model: ActivityModel, isobar: bool, value: f
     was_added = flags(np.zeros(curve.x1.shape, dtype=bool), np.ones(extra.x1.shape, dtype=bool))
     return merged, replace(phases, liquid_stable=flags(phases.liquid_stable, extra_stable),
                            inside_gap=flags(phases.inside_gap, extra_gap)), was_added
+
+
+def added_points(x1: FloatArray, three_phase: stability.ThreePhase | None) -> NDArray[np.bool_]:
+    """Which points of a curve computed on :func:`.curves.composition_grid` (liquid
+    compositions ``x1``) :func:`refine` added: those off the grid in a one-liquid stretch
+    beside ``three_phase`` (none without one).  Comparisons of two curves point by point
+    keep to the grid they share.
+
+    >>> from builder.analysis.stability import ThreePhase
+    >>> three = ThreePhase(T_K=342.4, P_Pa=101325.0, x1_a=4e-4, x1_b=0.6, y1=0.7)
+    >>> added_points(np.array([0.0, 2e-4, 0.001, 0.5, 0.55, 1.0]), three).tolist()
+    [False, True, False, False, False, False]
+    """
+    x = np.asarray(x1, dtype=float)
+    if three_phase is None:
+        return np.zeros(x.shape, dtype=bool)
+    outside = (x < three_phase.x1_a) | (x > three_phase.x1_b)
+    return np.asarray(outside & ~np.isin(x, curves.composition_grid()), dtype=bool)

@@ -29,7 +29,7 @@ from dataclasses import dataclass, replace
 import numpy as np
 from numpy.typing import NDArray
 
-from builder.analysis import curves
+from builder.analysis import curves, dew_branches
 from builder.analysis.point import system_for
 from builder.analysis.results import ConditionResult, PairResults, compute_condition
 from builder.analysis.trace import AzeotropeTrace, analyse, trace_azeotrope
@@ -157,6 +157,8 @@ def _isobar(catalogue: Catalogue, record: PairRecord, P_Pa: float) -> ConditionR
     system = system_for(record, catalogue)
     curve = curves.isobar(system, P_Pa)
     phases = analyse(system, record.model, True, P_Pa, curve)
+    # Its dew branches beside a three-phase line drawn whole, as on the fitted curve.
+    curve, phases, _ = dew_branches.refine(system, record.model, True, P_Pa, curve, phases)
     drawable = curve.converged & ~phases.inside_gap
     outside = np.zeros(curve.x1.shape, dtype=bool)
     for vp in (c1.vapour_pressure, c2.vapour_pressure):
@@ -173,18 +175,23 @@ def _isobar(catalogue: Catalogue, record: PairRecord, P_Pa: float) -> ConditionR
 def _bubble_difference(fitted: ConditionResult, predicted: ConditionResult
                        ) -> tuple[float, float]:
     a, b = fitted.curve, predicted.curve
-    if a.x1.shape != b.x1.shape or not np.allclose(a.x1, b.x1):
-        T_b = np.interp(a.x1, b.x1, b.T_K)
-        ok = fitted.drawable & np.isfinite(T_b)
+    # On the composition grid both share: without the points added beside a three-phase
+    # line, which the other curve has not got.
+    keep_a = ~dew_branches.added_points(a.x1, fitted.three_phase)
+    keep_b = ~dew_branches.added_points(b.x1, predicted.three_phase)
+    x_a, T_a, drawn_a = a.x1[keep_a], a.T_K[keep_a], fitted.drawable[keep_a]
+    x_b, T_b, drawn_b = b.x1[keep_b], b.T_K[keep_b], predicted.drawable[keep_b]
+    if x_a.shape != x_b.shape or not np.allclose(x_a, x_b):
+        T_b = np.interp(x_a, x_b, T_b)
+        ok = drawn_a & np.isfinite(T_b)
     else:
-        T_b = b.T_K
-        ok = fitted.drawable & predicted.drawable
-    diff: NDArray[np.float64] = np.abs(np.asarray(a.T_K, dtype=float) - T_b)
+        ok = drawn_a & drawn_b
+    diff: NDArray[np.float64] = np.abs(np.asarray(T_a, dtype=float) - T_b)
     diff = np.where(ok & np.isfinite(diff), diff, -1.0)
     if not (diff >= 0).any():
         return float("nan"), float("nan")
     i = int(np.argmax(diff))
-    return float(diff[i]), float(a.x1[i])
+    return float(diff[i]), float(x_a[i])
 
 
 def _direction(trace: AzeotropeTrace | None) -> tuple[float, str]:
