@@ -366,14 +366,19 @@ def quick_look(system: eq.BinarySystem, P_Pa: float, azeotropes: tuple[Azeotrope
     default split is stated for it.  When the requested split crosses an
     azeotrope, the split is moved to the reachable side: the azeotrope-free
     stretch holding the feed, 5 % of its width in from either end.
-    ``presolved``: bubble points at ``P_Pa`` already solved (e.g. at
-    :func:`quick_look_compositions`); a liquid found there is not solved again.
+    ``presolved``: bubble points at ``P_Pa`` already solved (e.g. the curve and
+    :func:`quick_look_compositions`); a liquid found there is not solved again, and the
+    others start from the temperature interpolated between them.
     """
     table: dict[float, float] = {}
+    guide_x1 = guide_T = np.empty(0)
     if presolved is not None:
         table = dict(zip(presolved.x1.tolist(),
                          np.where(presolved.converged, presolved.y1, np.nan).tolist(),
                          strict=True))
+        order = np.argsort(presolved.x1[presolved.converged], kind="stable")
+        guide_x1 = presolved.x1[presolved.converged][order]
+        guide_T = presolved.T_K[presolved.converged][order]
 
     def y1_of_x1(x1: FloatArray) -> FloatArray:
         x1 = np.asarray(x1, dtype=float)
@@ -381,7 +386,8 @@ def quick_look(system: eq.BinarySystem, P_Pa: float, azeotropes: tuple[Azeotrope
         y = np.array([table.get(v, np.nan) for v in values], dtype=float)
         missing = [i for i, v in enumerate(values) if v not in table]
         if missing:
-            result = eq.bubble_temperature(system, x1[missing], P_Pa)
+            guess = np.interp(x1[missing], guide_x1, guide_T) if guide_x1.size > 1 else None
+            result = eq.bubble_temperature(system, x1[missing], P_Pa, T_guess_K=guess)
             y[missing] = np.where(result.converged, result.y1, np.nan)
             table.update(zip(x1[missing].tolist(), y[missing].tolist(), strict=True))
         if three_phase is not None:
