@@ -230,16 +230,42 @@ def _reflux_grids(x_bottom: float, feed: float, x_top: float) -> tuple[FloatArra
     return np.linspace(feed, x_top, 201)[:-1], np.linspace(x_bottom, feed, 201)[1:]
 
 
+class _Known:
+    """Values of a function at the points where it was evaluated, looked up by the exact
+    float of the point (a table kept sorted, so that a lookup of many points is one
+    vectorised search)."""
+
+    def __init__(self, x: FloatArray, y: FloatArray) -> None:
+        self.x, self.y = self._sorted(x, y)
+
+    @staticmethod
+    def _sorted(x: FloatArray, y: FloatArray) -> tuple[FloatArray, FloatArray]:
+        x, first = np.unique(np.asarray(x, dtype=float), return_index=True)
+        return x, np.asarray(y, dtype=float)[first]
+
+    def find(self, u: FloatArray) -> tuple[FloatArray, NDArray[np.bool_]]:
+        """The values at ``u`` (NaN where unknown) and where they are known."""
+        if self.x.size == 0:
+            return np.full(u.shape, np.nan), np.zeros(u.shape, dtype=bool)
+        i = np.minimum(np.searchsorted(self.x, u), self.x.size - 1)
+        hit = self.x[i] == u
+        return np.where(hit, self.y[i], np.nan), hit
+
+    def add(self, u: FloatArray, values: FloatArray) -> None:
+        """Keep ``values`` at ``u`` (points already known keep their value)."""
+        self.x, self.y = self._sorted(np.concatenate([self.x, u]),
+                                      np.concatenate([self.y, values]))
+
+
 def _prefetched(y_star: Equilibrium, *grids: FloatArray) -> Equilibrium:
     """``y_star`` with its values on ``grids`` solved in one call beforehand."""
     xs = np.concatenate(grids)
-    table = dict(zip(xs.tolist(), y_star(xs).tolist(), strict=True))
+    known = _Known(xs, y_star(xs))
 
     def lookup(u: FloatArray) -> FloatArray:
-        values = np.asarray(u, dtype=float).tolist()
-        if all(v in table for v in values):
-            return np.array([table[v] for v in values], dtype=float)
-        return y_star(u)
+        u = np.asarray(u, dtype=float)
+        values, hit = known.find(u)
+        return values if hit.all() else y_star(u)
 
     return lookup
 
@@ -366,24 +392,27 @@ def quick_look(system: eq.BinarySystem, P_Pa: float, azeotropes: tuple[Azeotrope
     default split is stated for it.  When the requested split crosses an
     azeotrope, the split is moved to the reachable side: the azeotrope-free
     stretch holding the feed, 5 % of its width in from either end.
-    ``presolved``: bubble points at ``P_Pa`` already solved (e.g. at
-    :func:`quick_look_compositions`); a liquid found there is not solved again.
+    ``presolved``: bubble points at ``P_Pa`` already solved (e.g. the curve and
+    :func:`quick_look_compositions`); a liquid found there is not solved again, and the
+    others start from the temperature interpolated between them.
     """
-    table: dict[float, float] = {}
+    solved_points = _Known(np.empty(0), np.empty(0))
+    guide_x1 = guide_T = np.empty(0)
     if presolved is not None:
-        table = dict(zip(presolved.x1.tolist(),
-                         np.where(presolved.converged, presolved.y1, np.nan).tolist(),
-                         strict=True))
+        solved_points = _Known(presolved.x1, np.where(presolved.converged, presolved.y1, np.nan))
+        order = np.argsort(presolved.x1[presolved.converged], kind="stable")
+        guide_x1 = presolved.x1[presolved.converged][order]
+        guide_T = presolved.T_K[presolved.converged][order]
 
     def y1_of_x1(x1: FloatArray) -> FloatArray:
         x1 = np.asarray(x1, dtype=float)
-        values = x1.tolist()
-        y = np.array([table.get(v, np.nan) for v in values], dtype=float)
-        missing = [i for i, v in enumerate(values) if v not in table]
-        if missing:
-            result = eq.bubble_temperature(system, x1[missing], P_Pa)
+        y, hit = solved_points.find(x1)
+        missing = np.flatnonzero(~hit)
+        if missing.size:
+            guess = np.interp(x1[missing], guide_x1, guide_T) if guide_x1.size > 1 else None
+            result = eq.bubble_temperature(system, x1[missing], P_Pa, T_guess_K=guess)
             y[missing] = np.where(result.converged, result.y1, np.nan)
-            table.update(zip(x1[missing].tolist(), y[missing].tolist(), strict=True))
+            solved_points.add(x1[missing], y[missing])
         if three_phase is not None:
             inside = (x1 > three_phase.x1_a) & (x1 < three_phase.x1_b)
             y = np.where(inside, three_phase.y1, y)

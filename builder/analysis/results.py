@@ -97,7 +97,7 @@ def _condition(catalogue: Catalogue, pair: PairRecord, kind: str, value: float
         ends = np.cumsum([0] + [p.size for p in parts])
         curve_points, search_points, table_points, *rest = (
             _part(solved, slice(a, b)) for a, b in itertools.pairwise(ends))
-        presolved = rest[0] if rest else None
+        presolved = solved if rest else None
         curve = curves.from_bubble(kind, system, curve_points)
         phases = analyse(system, pair.model, isobar, value, curve, search_points)
     # Enough points on each one-liquid stretch beside a three-phase line for its dew branch.

@@ -417,7 +417,12 @@ def _gamma(results: PairResults, display: Display, folder: str) -> Figure:
     fig, ax = _new("gamma")
     handles = []
     any_dashed = False
-    first = True
+    # Where each curve family starts (ln γ1 at its first drawn point, ln γ2 at its last),
+    # and its next point inwards: the family's label goes beside the outermost end, above
+    # it where the curves fall away from their ends (positive deviations) and below it where
+    # they rise, so that it never sits on a curve.
+    ends1: list[tuple[float, float, float]] = []
+    ends2: list[tuple[float, float, float]] = []
     for (colour, marker), result in zip(_styles(len(results.conditions)), results.conditions,
                                         strict=True):
         curve = result.curve
@@ -429,18 +434,23 @@ def _gamma(results: PairResults, display: Display, folder: str) -> Figure:
         d1 = _draw(ax, curve.x1, g1, usable, ex, colour=colour, marker=marker)
         d2 = _draw(ax, curve.x1, g2, usable, ex, colour=colour, marker=marker, open_marker=True)
         any_dashed |= bool(d1 or d2)
-        if first:
-            ok = np.flatnonzero(usable & np.isfinite(g1) & np.isfinite(g2))
-            if ok.size:
-                i, j = ok[0], ok[-1]
-                ax.annotate("ln γ1", (curve.x1[i], g1[i]), xytext=(6, 0),
-                            textcoords="offset points", va="center", fontsize=8,
-                            fontweight="bold", color=colour)
-                ax.annotate("ln γ2", (curve.x1[j], g2[j]), xytext=(-6, 0),
-                            textcoords="offset points", va="center", ha="right", fontsize=8,
-                            fontweight="bold", color=colour)
-            first = False
+        ok = np.flatnonzero(usable & np.isfinite(g1) & np.isfinite(g2))
+        if ok.size > 1:
+            ends1.append((float(curve.x1[ok[0]]), float(g1[ok[0]]), float(g1[ok[1]])))
+            ends2.append((float(curve.x1[ok[-1]]), float(g2[ok[-1]]), float(g2[ok[-2]])))
         handles.append(Line2D([], [], color=colour, marker=marker, label=display.condition(result)))
+    for text, ends, side in (("ln γ1", ends1, 1), ("ln γ2", ends2, -1)):
+        if ends:
+            up = sum(end[1] - end[2] for end in ends) >= 0  # the curves fall inwards
+            x_end, at, _ = (max if up else min)(ends, key=lambda end: end[1])
+            ax.annotate(text, (x_end, at), xytext=(6 * side, 7 if up else -7),
+                        textcoords="offset points", va="bottom" if up else "top",
+                        ha="left" if side > 0 else "right", fontsize=8,
+                        fontweight="bold", color="#3a444c",
+                        bbox={"boxstyle": "square,pad=0.1", "facecolor": "white",
+                              "edgecolor": "none", "alpha": 0.85})
+    if ends1 or ends2:
+        ax.margins(y=0.14)  # room beside the outermost ends for the labels
     handles.append(Line2D([], [], color=GREY, marker="o", linestyle="none", label="ln γ1 (filled)"))
     handles.append(Line2D([], [], color=GREY, marker="o", markerfacecolor="white",
                           linestyle="none", label="ln γ2 (open)"))

@@ -59,9 +59,19 @@ def environment() -> jinja2.Environment:
         trim_blocks=True, lstrip_blocks=True, keep_trailing_newline=True,
     )
     env.filters["fmt"] = fmt
+    env.filters["count"] = _count
     env.filters["sortkey"] = _sortkey
     env.globals["nan"] = math.nan
     return env
+
+
+def _count(value: int) -> str:
+    """A count for reading, its thousands grouped as the index page's script groups them.
+
+    >>> _count(3680), _count(88)
+    ('3,680', '88')
+    """
+    return f"{value:,}"
 
 
 def _sortkey(value: float) -> str:

@@ -54,12 +54,15 @@ S_NEWTON = 1.5
 
 
 def bubble_vapour(vapour: VapourModel, p1: FloatArray, p2: FloatArray, T_K: FloatArray,
-                  P_Pa: FloatArray, psat1_Pa: FloatArray, psat2_Pa: FloatArray
+                  P_Pa: FloatArray, psat1_Pa: FloatArray, psat2_Pa: FloatArray, *,
+                  terms: tuple[FloatArray, FloatArray, FloatArray] | None = None
                   ) -> tuple[FloatArray, FloatArray, FloatArray, BoolArray]:
     """Corrected partial pressures ``p_i c_i``, the vapour ``y1`` and convergence per point.
 
     ``p1``, ``p2`` [Pa] are ``x_i γ_i P_i^sat`` at ``T_K`` [K] and ``P_Pa`` [Pa]
-    (1-D arrays of one length, as are the saturation pressures).
+    (1-D arrays of one length, as are the saturation pressures).  ``terms``: the virial
+    vapour's :meth:`~builder.thermo.vapour.VirialVapour.correction_terms` at these
+    points when the caller has them already.
 
     Propane over n-butane at 330 K and 1 MPa with equal uncorrected partial pressures
     (0.5 MPa each; saturation pressures 1.7 and 0.6 MPa); successive substitution
@@ -76,7 +79,8 @@ def bubble_vapour(vapour: VapourModel, p1: FloatArray, p2: FloatArray, T_K: Floa
     """
     if not isinstance(vapour, VirialVapour):
         return _substitution(vapour, p1, p2, T_K, P_Pa, psat1_Pa, psat2_Pa)
-    a1, a2, s = vapour.correction_terms(T_K, P_Pa, psat1_Pa, psat2_Pa)
+    a1, a2, s = (vapour.correction_terms(T_K, P_Pa, psat1_Pa, psat2_Pa) if terms is None
+                 else terms)
     a1, a2, s = (v if np.shape(v) == p1.shape else np.broadcast_to(v, p1.shape)
                  for v in (a1, a2, s))
     with np.errstate(all="ignore"):

@@ -197,13 +197,18 @@ def k_values(
     if y1 is None:  # the bubble vapour, from the γ and P_sat above
         x, Tb, shape = _as_points(x1, T)
         Pb = np.broadcast_to(P, shape).ravel().astype(float)
-        p1 = (x * np.broadcast_to(np.exp(ln_g1), shape).ravel()
-              * np.broadcast_to(ps1, shape).ravel())
-        p2 = ((1.0 - x) * np.broadcast_to(np.exp(ln_g2), shape).ravel()
-              * np.broadcast_to(ps2, shape).ravel())
-        y1 = np.reshape(bubble_vapour(system.vapour, p1, p2, Tb, Pb,
-                                      np.broadcast_to(ps1, shape).ravel(),
-                                      np.broadcast_to(ps2, shape).ravel())[2], shape)
+        ps1b, ps2b = (np.broadcast_to(ps, shape).ravel() for ps in (ps1, ps2))
+        p1 = x * np.broadcast_to(np.exp(ln_g1), shape).ravel() * ps1b
+        p2 = (1.0 - x) * np.broadcast_to(np.exp(ln_g2), shape).ravel() * ps2b
+        if isinstance(system.vapour, VirialVapour):
+            # ln c_i from the terms the bubble vapour was solved with (one evaluation of
+            # B11, B22 and B12): ln c1 = a1 - s y2², ln c2 = a2 - s y1².
+            terms = system.vapour.correction_terms(Tb, Pb, ps1b, ps2b)
+            y = bubble_vapour(system.vapour, p1, p2, Tb, Pb, ps1b, ps2b, terms=terms)[2]
+            a1, a2, s = terms
+            return (K1 * np.reshape(np.exp(a1 - s * (1.0 - y) ** 2), shape),
+                    K2 * np.reshape(np.exp(a2 - s * y * y), shape))
+        y1 = np.reshape(bubble_vapour(system.vapour, p1, p2, Tb, Pb, ps1b, ps2b)[2], shape)
     c1, c2 = ln_correction(system.vapour, y1, T, P, ps1, ps2)
     return K1 * np.exp(c1), K2 * np.exp(c2)
 
@@ -397,15 +402,17 @@ def dew_pressure(system: BinarySystem, y1: ArrayLike, T_K: ArrayLike) -> Equilib
 
 def _temperature_solve(system: BinarySystem, P: FloatArray, z1: FloatArray,
                        residual: Callable[[FloatArray, NDArray[Any]], FloatArray],
-                       newton_first: bool = False) -> RootResult:
+                       newton_first: bool = False, T_guess: FloatArray | None = None
+                       ) -> RootResult:
     """Solve ``residual(T) = 0`` for a temperature at ``P``, every point at once.
 
     The bracket starts at the pure components' saturation temperatures and is
     widened until ``residual`` changes sign (an azeotrope may boil outside
     that span); the first guess interpolates the two by the composition ``z1``.
-    With ``newton_first`` plain Newton steps from that guess come first
-    (:func:`solve_newton`: no evaluations spent on the bracket), and only the
-    points they do not settle are bracketed and solved as above.
+    With ``newton_first`` plain Newton steps from that guess (or from ``T_guess``
+    where given and finite) come first (:func:`solve_newton`: no evaluations spent on
+    the bracket), and only the points they do not settle are bracketed and solved as
+    above.
     """
     T1 = np.asarray(system.psat1.temperature_K(P), dtype=float)
     T2 = np.asarray(system.psat2.temperature_K(P), dtype=float)
@@ -416,7 +423,10 @@ def _temperature_solve(system: BinarySystem, P: FloatArray, z1: FloatArray,
         def in_u(u: FloatArray, index: NDArray[np.intp]) -> FloatArray:
             return residual(1000.0 / u, index)
 
-        first = solve_newton(in_u, 1000.0 / (z1 * T1 + (1.0 - z1) * T2), maxiter=_NEWTON_STEPS,
+        start = z1 * T1 + (1.0 - z1) * T2
+        if T_guess is not None:
+            start = np.where(np.isfinite(T_guess), T_guess, start)
+        first = solve_newton(in_u, 1000.0 / start, maxiter=_NEWTON_STEPS,
                              max_step=_NEWTON_MAX_STEP)
         first = RootResult(root=1000.0 / first.root, converged=first.converged,
                            residual=first.residual, iterations=first.iterations)
@@ -445,12 +455,14 @@ def _temperature_solve(system: BinarySystem, P: FloatArray, z1: FloatArray,
 
 
 def bubble_temperature(system: BinarySystem, x1: ArrayLike, P_Pa: ArrayLike, *,
-                       newton_first: bool = True) -> EquilibriumResult:
+                       newton_first: bool = True, T_guess_K: ArrayLike | None = None
+                       ) -> EquilibriumResult:
     """Bubble temperature and vapour composition of liquid ``x1`` at ``P_Pa``.
 
     Solves ``ln(Σ x_i γ_i(T) P_i^sat(T) c_i) = ln P`` for T, all points at once:
     Newton steps in ``1000 K/T`` from a guess interpolated between the pure
-    components' boiling points; any point they leave unsettled is bracketed
+    components' boiling points (or from ``T_guess_K``, e.g. read off a curve already
+    solved: one Newton step fewer); any point they leave unsettled is bracketed
     between those boiling points, widened until it brackets (an azeotrope may
     boil outside that span), and solved by bracketed Newton.  ``newton_first=False``
     brackets every point from the start (the starting values of the φ–φ solver
@@ -466,7 +478,10 @@ def bubble_temperature(system: BinarySystem, x1: ArrayLike, P_Pa: ArrayLike, *,
         p1, p2, _, _, _, _ = _bubble_vapour(system, x[mask], T, P[mask])
         return np.log(p1 + p2) - ln_P[mask]
 
-    solved = _temperature_solve(system, P, x, residual, newton_first=newton_first)
+    guess = None if T_guess_K is None else np.broadcast_to(
+        np.asarray(T_guess_K, dtype=float), shape).ravel()
+    solved = _temperature_solve(system, P, x, residual, newton_first=newton_first,
+                                T_guess=guess)
     T = solved.root
     _, _, ln_g1, ln_g2, y, inner_ok = _bubble_vapour(system, x, T, P)
     ok = solved.converged & np.isfinite(y) & inner_ok
