@@ -148,13 +148,15 @@ def test_each_added_point_keeps_its_own_liquid_vapour_and_temperature(
                                atol=1e-12)
 
 
-def test_the_builder_dew_temperature_agrees_on_the_benzene_rich_branch(
-        catalogue: Catalogue, benzene_water: PairResults) -> None:
-    """The builder's own dew-temperature solver at each vapour of the benzene-rich branch
-    returns the point's temperature and liquid (an independent solve in T of the dew
-    condition)."""
+@pytest.mark.parametrize("side", ["high", "low"])
+def test_the_builder_dew_temperature_agrees_on_both_branches(
+        catalogue: Catalogue, benzene_water: PairResults, side: str) -> None:
+    """The builder's own dew-temperature solver at each vapour of the benzene-rich
+    ("high") and the water-rich ("low") branch returns the point's temperature and liquid
+    (an independent solve in T of the dew condition, which must pick, among the liquids
+    in equilibrium with the vapour, the one that condenses first)."""
     condition = _atmospheric(benzene_water)
-    i = _branch(condition, "high")
+    i = _branch(condition, side)
     curve = condition.curve
     dew = eq.dew_temperature(system_for(benzene_water.pair, catalogue), curve.y1[i], P_PA)
     assert dew.converged.all()
@@ -298,3 +300,30 @@ def test_the_second_opinion_draws_its_branch_and_compares_on_the_shared_grid(
     assert np.max(np.abs(water_pressure / (y * P_PA) - 1.0)) < 0.025
     opinion = second_opinion(catalogue, shipped_results["water--1-butanol"])
     assert opinion.x1_at_max in composition_grid()
+
+
+@pytest.mark.parametrize("y1", [0.05, 0.65, 0.68])
+def test_dew_point_of_a_water_rich_vapour_over_benzene(catalogue: Catalogue,
+                                                       benzene_water: PairResults,
+                                                       y1: float) -> None:
+    """A vapour of benzene (1) and water (2) richer in water than the heterogeneous
+    azeotrope condenses water first: its dew temperature at 101.325 kPa is where water's
+    saturation pressure equals water's partial pressure, ``P_sat,water(T) = (1 - y1) P``
+    (common practice: the liquid is nearly pure water, x1 below 0.01), here with CoolProp's
+    IAPWS-95 saturation temperature; 0.25 K covers the catalogue's water correlation
+    (0.1 K off IAPWS-95 at 1 atm) and the virial vapour.  The dew pressure at 350 K
+    likewise: ``P = P_sat,water(350 K) / (1 - y1)`` within 1 %.  The liquid on the other
+    side of the split (x1 near 0.99, about 4.6 K colder at 1 atm) must not be taken."""
+    from CoolProp.CoolProp import PropsSI
+
+    system = system_for(benzene_water.pair, catalogue)
+    three = _atmospheric(benzene_water).three_phase
+    assert three is not None and y1 < three.y1
+    dew = eq.dew_temperature(system, y1, P_PA)
+    assert bool(dew.converged) and float(dew.x1) < 0.01
+    expected = PropsSI("T", "P", (1.0 - y1) * P_PA, "Q", 1, "HEOS::Water")
+    assert float(dew.T_K) == pytest.approx(expected, abs=0.25)
+    at_350 = eq.dew_pressure(system, y1, 350.0)
+    assert bool(at_350.converged) and float(at_350.x1) < 0.01
+    water_350 = PropsSI("P", "T", 350.0, "Q", 1, "HEOS::Water")
+    assert float(at_350.P_Pa) == pytest.approx(water_350 / (1.0 - y1), rel=0.01)

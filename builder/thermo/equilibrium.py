@@ -345,36 +345,83 @@ def bubble_pressure(system: BinarySystem, x1: ArrayLike, T_K: ArrayLike) -> Equi
     return _reshape(EquilibriumResult(T, P, x, y, ln_g1, ln_g2, converged, phi1, phi2), shape)
 
 
+#: Liquid compositions scanned for every liquid in equilibrium with a given vapour: the
+#: pure ends, a log-spaced approach to both (a nearly immiscible liquid's one-liquid
+#: stretch can be narrower than 1e-4) and an even grid.
+_DEW_SCAN = np.unique(np.concatenate([[0.0, 1.0], np.logspace(-9, -1, 17),
+                                      1.0 - np.logspace(-9, -1, 17),
+                                      np.linspace(0.0, 1.0, 41)]))
+
+
 def _liquid_for_vapour(system: BinarySystem, y: FloatArray, T: FloatArray,
                        ln_c: LnC | None = None) -> tuple[FloatArray, BoolArray]:
-    """Liquid ``x1`` whose bubble-point vapour at ``T`` is ``y`` (bracketed on [0, 1]).
+    """Liquid ``x1`` in equilibrium with the vapour ``y`` at ``T``: the first liquid to
+    condense from it.
 
-    ``ln_c`` is the vapour correction, fixed because ``y`` (and P) are.  For a
-    stable liquid at fixed T the bubble vapour ``y1`` rises monotonically with
-    ``x1``, so the root in [0, 1] is unique.
+    ``ln_c`` is the vapour correction, fixed because ``y`` (and P) are.  For a stable
+    liquid at fixed T the bubble vapour ``y1`` rises monotonically with ``x1``, so there
+    is one liquid; where the liquid can split (a water-rich and an organic-rich liquid),
+    several liquids have bubble vapour ``y``, and the vapour condenses first, as it is
+    compressed, to the one of the lowest bubble pressure (at a given pressure: of the
+    highest temperature).  Every liquid is found: the residual ``y1(x1) - y`` is scanned
+    on :data:`_DEW_SCAN` for each point, each sign change is solved by bracketed Newton
+    (all brackets of all points at once), and each point keeps the root of the lowest
+    bubble pressure.  Liquids closer together than the scan's spacing (a few 1e-10 near
+    the pure ends) are not told apart.
     """
+    n, m = y.size, _DEW_SCAN.size
+    point = np.repeat(np.arange(n), m)
+    grid = np.tile(_DEW_SCAN, n)
 
-    def residual(x: FloatArray, mask: BoolArray) -> FloatArray:
-        c = None if ln_c is None else (ln_c[0][mask], ln_c[1][mask])
-        p1, p2, _, _ = _partial_pressures(system, x, T[mask], c)
-        return p1 / (p1 + p2) - y[mask]
+    def bubble(x: FloatArray, at: NDArray[np.intp]) -> tuple[FloatArray, FloatArray]:
+        c = None if ln_c is None else (ln_c[0][at], ln_c[1][at])
+        p1, p2, _, _ = _partial_pressures(system, x, T[at], c)
+        return p1 / (p1 + p2) - y[at], p1 + p2
 
-    # Ideal-solution estimate as the starting point: x1 = y1/P1 / (y1/P1 + y2/P2).
-    r1 = y / system.psat1.pressure_Pa(T)
-    r2 = (1.0 - y) / system.psat2.pressure_Pa(T)
-    if ln_c is not None:
-        r1, r2 = r1 / np.exp(ln_c[0]), r2 / np.exp(ln_c[1])
-    guess = r1 / (r1 + r2)
-    result = solve_bracketed(residual, np.zeros_like(y), np.ones_like(y), guess, xtol=1e-14,
-                             ftol=1e-14)
-    return result.root, result.converged
+    with np.errstate(invalid="ignore", divide="ignore", over="ignore"):
+        scan = bubble(grid, point)[0].reshape(n, m)
+    sign = np.sign(scan)
+    # A root inside an interval of the scan, or on one of its points (y at a pure end).
+    inside = np.argwhere(sign[:, :-1] * sign[:, 1:] < 0)
+    on = np.argwhere(sign == 0)
+    owner = np.concatenate([inside[:, 0], on[:, 0]])
+    lo = np.concatenate([_DEW_SCAN[inside[:, 1]], _DEW_SCAN[on[:, 1]]])
+    hi = np.concatenate([_DEW_SCAN[inside[:, 1] + 1], _DEW_SCAN[on[:, 1]]])
+    x = np.full(n, np.nan)
+    converged = np.zeros(n, dtype=bool)
+    if owner.size == 0:
+        return x, converged
+
+    roots = lo.copy()
+    ok = lo == hi  # exact zeros on the scan
+    search = np.flatnonzero(~ok)
+    if search.size:
+        searched_owner = owner[search]
+
+        def residual(u: FloatArray, mask: BoolArray) -> FloatArray:
+            return bubble(u, searched_owner[mask])[0]
+
+        solved = solve_bracketed(residual, lo[search], hi[search],
+                                 0.5 * (lo[search] + hi[search]), xtol=1e-14, ftol=1e-14)
+        roots[search], ok[search] = solved.root, solved.converged
+    with np.errstate(invalid="ignore", divide="ignore", over="ignore"):
+        pressure = np.where(ok, bubble(roots, owner)[1], np.inf)
+    # Per point, the converged root of the lowest bubble pressure.
+    order = np.lexsort((pressure, owner))
+    first = order[np.r_[True, owner[order][1:] != owner[order][:-1]]]
+    x[owner[first]] = roots[first]
+    converged[owner[first]] = ok[first]
+    return x, converged
 
 
 def dew_pressure(system: BinarySystem, y1: ArrayLike, T_K: ArrayLike) -> EquilibriumResult:
     """Dew pressure and liquid composition of vapour ``y1`` at ``T_K``.
 
-    With a real vapour the correction ``c_i(y, T, P)`` is known once P is, so
-    the ideal-gas solve is repeated with it until P settles.
+    The liquid is the first to condense (:func:`_liquid_for_vapour`: on a pair whose
+    liquid splits, a water-rich vapour condenses to the water-rich liquid even where an
+    organic-rich liquid also has that vapour).  With a real vapour the correction
+    ``c_i(y, T, P)`` is known once P is, so the ideal-gas solve is repeated with it
+    until P settles.
     """
     y, T, shape = _as_points(y1, T_K)
     _check_fractions("y1", y)
@@ -494,8 +541,8 @@ def dew_temperature(system: BinarySystem, y1: ArrayLike, P_Pa: ArrayLike) -> Equ
 
     An outer bracketed solve in T of ``ln P_dew(T, y1) = ln P``, where the
     inner step finds the liquid in equilibrium with ``y1`` at each trial T
-    (:func:`dew_pressure`'s bracketed solve in ``x1``, with the vapour
-    correction at the known y, T and P).
+    (:func:`dew_pressure`'s solve in ``x1``, with the vapour correction at the
+    known y, T and P; where several liquids are, the first to condense).
     """
     y, P, shape = _as_points(y1, P_Pa)
     _check_fractions("y1", y)
