@@ -30,13 +30,17 @@ from matplotlib.axis import Axis
 from matplotlib.backends.backend_svg import (
     FigureCanvasSVG,
     RendererSVG,
+    _escape_cdata,
     _generate_css,
     _generate_transform,
+    _quote_escape_attrib,
     _short_float_fmt,
+    _XMLWriter,
 )
 from matplotlib.figure import Figure as MplFigure
 from matplotlib.font_manager import FontProperties, findfont, get_font
 from matplotlib.lines import Line2D
+from matplotlib.path import Path
 from matplotlib.ticker import AutoLocator, NullFormatter, NullLocator, ScalarFormatter
 from matplotlib.transforms import Affine2D, Bbox
 
@@ -51,8 +55,102 @@ _HEIGHTS: dict[FontProperties, tuple[Any, Any, Any]] = {}
 _TEXT_CSS: dict[tuple[FontProperties, Any, str], str] = {}
 
 
+#: Attribute values as matplotlib's SVG writer quotes them, kept for the process (styles,
+#: clip paths and references repeat from element to element and figure to figure).
+_QUOTED: dict[str, str] = {}
+
+
+def _quoted(value: str) -> str:
+    quoted = _QUOTED.get(value)
+    if quoted is None:
+        quoted = _quote_escape_attrib(value)
+        if len(value) < 200 and len(_QUOTED) < 50_000:
+            _QUOTED[value] = quoted
+    return quoted
+
+
+#: Path codes of one vertex each (what a line of markers is made of).
+_POINT_CODES = {Path.MOVETO, Path.LINETO, Path.CLOSEPOLY}
+
+
+def _tag(name: str) -> str:
+    return _escape_cdata(name) if ("&" in name or "<" in name or ">" in name) else name
+
+
+class _Writer(_XMLWriter):
+    """matplotlib's SVG writer, the same bytes in fewer steps: one write per tag, quoted
+    attribute values kept, and :meth:`empty_elements` for many elements at once.  It
+    keeps its state in :class:`_XMLWriter`'s own (private) attributes: a renderer's
+    writer becomes one after the renderer wrote its header."""
+
+    def _open(self) -> list[str]:
+        """Close a start tag left open and write pending text (as ``__flush``); the open
+        tags."""
+        state: Any = self
+        if state._XMLWriter__open or state._XMLWriter__data:
+            state._XMLWriter__flush()
+        tags: list[str] = state._XMLWriter__tags
+        return tags
+
+    def start(self, tag: str, attrib: Any = None, **extra: Any) -> int:
+        state: Any = self
+        tags = self._open()
+        tag = _tag(tag)
+        tags.append(tag)
+        out = [state._XMLWriter__indentation[:len(tags) - 1], "<", tag]
+        items = ({**attrib, **extra} if extra else attrib) if attrib else extra
+        for k, v in items.items():
+            if v:
+                out.append(f" {_tag(k)}={_quoted(v)}")
+        state._XMLWriter__write("".join(out))
+        state._XMLWriter__open = 1
+        return len(tags) - 1
+
+    def end(self, tag: str | None = None, indent: bool = True) -> None:
+        state: Any = self
+        tags: list[str] = state._XMLWriter__tags
+        if tag:
+            assert tags, f"unbalanced end({tag})"
+            assert _tag(tag) == tags[-1], f"expected end({tags[-1]}), got {tag}"
+        else:
+            assert tags, "unbalanced end()"
+        tag = tags.pop()
+        if state._XMLWriter__data:
+            state._XMLWriter__flush(indent)
+        elif state._XMLWriter__open:
+            state._XMLWriter__open = 0
+            state._XMLWriter__write("/>\n")
+            return
+        if indent:
+            state._XMLWriter__write(f"{state._XMLWriter__indentation[:len(tags)]}</{tag}>\n")
+        else:
+            state._XMLWriter__write(f"</{tag}>\n")
+
+    def element(self, tag: str, text: str | None = None, attrib: Any = None,
+                **extra: Any) -> None:
+        self.start(tag, attrib, **extra)
+        if text:
+            self.data(text)
+        self.end(indent=False)
+
+    def empty_elements(self, tag: str, attributes: list[str]) -> None:
+        """Elements ``tag`` without content, one per string of attributes, as
+        :meth:`element` writes them (each attribute `` name="value"``, quoted as
+        :meth:`start` quotes it, and none with an empty value)."""
+        if not attributes:
+            return
+        state: Any = self
+        tags = self._open()
+        head = f"{state._XMLWriter__indentation[:len(tags)]}<{_tag(tag)}"
+        state._XMLWriter__write("".join(f"{head}{text}/>\n" for text in attributes))
+
+
 class _Renderer(RendererSVG):
     """matplotlib's SVG renderer with text sizes kept for the process."""
+
+    def __init__(self, *args: Any, **kwargs: Any) -> None:
+        super().__init__(*args, **kwargs)
+        self.writer.__class__ = _Writer  # the same state, fewer steps per element
 
     def get_text_width_height_descent(self, s: str, prop: FontProperties,
                                       ismath: Any) -> tuple[float, float, float]:
@@ -112,16 +210,24 @@ class _Renderer(RendererSVG):
         if gc.get_url() is not None:
             writer.start("a", {"xlink:href": gc.get_url(), "target": "_blank"})
         trans_and_flip = self._make_flip_transform(trans)
-        attrib = {"xlink:href": f"#{oid}"}
         clip = (0, 0, self.width * 72, self.height * 72)
+        # The points ``path.iter_segments`` gives (the same call of matplotlib's path
+        # cleaning), each written as the ``<use>`` element matplotlib writes for it.
+        cleaned = path.cleaned(transform=trans_and_flip, remove_nans=True, clip=clip,
+                               snap=False, stroke_width=1.0, simplify=False, curves=True)
+        codes = cleaned.codes.tolist()
+        count = codes.index(Path.STOP) if Path.STOP in codes else len(codes)
+        if set(codes[:count]) <= _POINT_CODES:
+            points = cleaned.vertices[:count]
+        else:  # curves in a marker line: as matplotlib walks them
+            points = np.array([vertices[-2:] for vertices, _code in path.iter_segments(
+                trans_and_flip, clip=clip, simplify=False) if len(vertices)]).reshape(-1, 2)
+        head = f'xlink:href={_quoted(f"#{oid}")}'
         use_style = self._get_style(gc, rgbFace)
-        for vertices, _code in path.iter_segments(trans_and_flip, clip=clip, simplify=False):
-            if len(vertices):
-                x, y = vertices[-2:]
-                attrib["x"] = _short_float_fmt(x)
-                attrib["y"] = _short_float_fmt(y)
-                attrib["style"] = use_style
-                writer.element("use", attrib=attrib)
+        tail = f" style={_quoted(use_style)}" if use_style else ""
+        attributes = [f' {head} x="{_short_float_fmt(x)}" y="{_short_float_fmt(y)}"{tail}'
+                      for x, y in points.tolist()]
+        writer.empty_elements("use", attributes)
         if gc.get_url() is not None:
             writer.end("a")
         writer.end("g")
