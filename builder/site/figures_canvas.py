@@ -19,6 +19,7 @@ from __future__ import annotations
 
 import io
 import threading
+import weakref
 from typing import Any
 
 import matplotlib as mpl
@@ -42,7 +43,7 @@ from matplotlib.font_manager import FontProperties, findfont, get_font
 from matplotlib.lines import Line2D
 from matplotlib.path import Path
 from matplotlib.ticker import AutoLocator, NullFormatter, NullLocator, ScalarFormatter
-from matplotlib.transforms import Affine2D, Bbox
+from matplotlib.transforms import Affine2D, Bbox, TransformedBbox
 
 from builder.site.figures_axes import light_axes
 from builder.site.figures_text import make_light
@@ -331,15 +332,50 @@ def _font_css(prop: FontProperties) -> dict[str, str]:
     return style
 
 
+#: The clip box of lines added to axes (one per axes patch, shared by its lines: the box
+#: follows the axes as the one ``Axes.add_line`` makes for each line does).
+_CLIP_BOXES: weakref.WeakKeyDictionary[Any, TransformedBbox] = weakref.WeakKeyDictionary()
+
+
 def plot_line(ax: Axes, x: Any, y: Any, **style: Any) -> Line2D:
     """What ``ax.plot(x, y, **style)`` draws for one line whose colour is given, without
     ``plot``'s reading of its arguments and property cycle (a third of its time): the
     line added to the axes and their limits asked to follow the data, as ``plot``
-    does."""
+    does.  A line in data coordinates on plain axes is added as ``Axes.add_line`` adds
+    it, with the clip box shared by the axes' lines and the data limits grown by the
+    line's path directly."""
     line = Line2D(x, y, **style)
-    ax.add_line(line)
+    if "transform" in style or "clip_path" in style or ax.name != "rectilinear":
+        ax.add_line(line)
+    else:
+        _add_line(ax, line)
     ax.autoscale(enable=None)  # type: ignore[arg-type]  # None: as they are set (documented)
     return line
+
+
+def _add_line(ax: Axes, line: Line2D) -> None:
+    """``ax.add_line(line)`` for a line in the axes' data coordinates."""
+    ax._set_artist_props(line)  # type: ignore[attr-defined]
+    box = _CLIP_BOXES.get(ax.patch)
+    if box is None:
+        box = _CLIP_BOXES[ax.patch] = TransformedBbox(Bbox.unit(), ax.patch.get_transform())
+    if line.get_clip_on() and line.get_clip_path() is None:
+        # What ``set_clip_path(ax.patch)`` does for the axes' rectangle.
+        line.clipbox = box
+        line._clippath = None  # type: ignore[attr-defined]
+        line.pchanged()
+        line.stale = True
+    path: Any = line.get_path()
+    if path.vertices.size:
+        ax.dataLim.update_from_path(path, ax.ignore_existing_data_limits, updatex=True,
+                                    updatey=True)
+        ax.ignore_existing_data_limits = False
+    if not line.get_label():
+        line.set_label(f"_child{len(ax._children)}")  # type: ignore[attr-defined]
+    ax._children.append(line)  # type: ignore[attr-defined]
+    line._remove_method = ax._children.remove  # type: ignore[attr-defined]
+    ax.stale = True
+    line._set_in_autoscale(True)  # type: ignore[attr-defined]
 
 
 class Kept:
