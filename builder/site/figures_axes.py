@@ -33,6 +33,7 @@ from matplotlib.textpath import TextToPath
 from matplotlib.ticker import NullLocator
 from matplotlib.transforms import ScaledTranslation
 
+from builder.site.figures_lines import LightLine
 from builder.site.figures_text import draw_text
 
 __all__ = ["light_axes", "text_size_pt"]
@@ -143,12 +144,12 @@ def _draw_axis(ax: Axes, axis: Axis, which: str) -> Callable[[], None]:
         edge = ax.get_xaxis_transform("grid") if which == "x" else \
             ax.get_yaxis_transform("grid")
         if which == "x":
-            marks = Line2D(locs, [0.0] * len(locs), transform=edge, marker=cast(Any, TICKDOWN),
+            marks = LightLine(locs, [0.0] * len(locs), transform=edge, marker=cast(Any, TICKDOWN),
                            linestyle="none")
             text_transform = edge + ScaledTranslation(0, -pad / 72, ax.figure.dpi_scale_trans)
             va, ha = "top", rc["xtick.alignment"]
         else:
-            marks = Line2D([0.0] * len(locs), locs, transform=edge, marker=cast(Any, TICKLEFT),
+            marks = LightLine([0.0] * len(locs), locs, transform=edge, marker=cast(Any, TICKLEFT),
                            linestyle="none")
             text_transform = edge + ScaledTranslation(-pad / 72, 0, ax.figure.dpi_scale_trans)
             va, ha = rc["ytick.alignment"], "right"
@@ -172,8 +173,8 @@ def _draw_axis(ax: Axes, axis: Axis, which: str) -> Callable[[], None]:
             nan = float("nan")
             along = [v for loc in locs for v in (loc, loc, nan)]
             across = [v for _ in locs for v in (0.0, 1.0, nan)]
-            grid = Line2D(along, across, transform=edge) if which == "x" else \
-                Line2D(across, along, transform=edge)
+            grid = LightLine(along, across, transform=edge) if which == "x" else \
+                LightLine(across, along, transform=edge)
             grid.set(color=rc["grid.color"], linewidth=float(rc["grid.linewidth"]),
                      linestyle=rc["grid.linestyle"], alpha=rc["grid.alpha"], zorder=1.5)
             grid.set_clip_path(ax.patch)  # inside the axes, as added to them

@@ -46,6 +46,7 @@ from matplotlib.ticker import AutoLocator, NullFormatter, NullLocator, ScalarFor
 from matplotlib.transforms import Affine2D, Bbox, TransformedBbox
 
 from builder.site.figures_axes import light_axes
+from builder.site.figures_lines import LightLine
 from builder.site.figures_text import make_light
 from builder.site.svg import compact
 
@@ -344,7 +345,7 @@ def plot_line(ax: Axes, x: Any, y: Any, **style: Any) -> Line2D:
     does.  A line in data coordinates on plain axes is added as ``Axes.add_line`` adds
     it, with the clip box shared by the axes' lines and the data limits grown by the
     line's path directly."""
-    line = Line2D(x, y, **style)
+    line = LightLine(x, y, **style)
     if "transform" in style or "clip_path" in style or ax.name != "rectilinear":
         ax.add_line(line)
     else:

@@ -28,6 +28,7 @@ from matplotlib.patches import Patch, Rectangle
 from matplotlib.text import Text
 from matplotlib.transforms import IdentityTransform, Transform
 
+from builder.site.figures_lines import LightLine
 from builder.site.figures_text import draw_text, line_metrics
 
 __all__ = ["LightLegend"]
@@ -74,8 +75,10 @@ class LightLegend(Artist):
             artist: Artist
             if isinstance(handle, Line2D) and handle.get_figure(root=False) is None:
                 artist = handle  # a proxy drawn nowhere else: drawn as it is (no copy)
+                if type(handle) is Line2D:
+                    handle.__class__ = LightLine  # drawn by draw_line (the same SVG)
             elif isinstance(handle, Line2D):
-                artist = Line2D([], [])
+                artist = LightLine([], [])
                 artist.update_from(handle)
             else:
                 artist = Rectangle((0.0, 0.0), 1.0, 1.0)
