@@ -81,7 +81,14 @@ def _simplify(points: list[tuple[float, float]]) -> list[tuple[float, float]]:
 _LETTERS = frozenset("MLQCz")
 
 
+#: A path of such commands and numbers, each token on its own between white space: a
+#: command letter, or a number's start (digit, sign or point) not ending in a letter.
+_SPACED = re.compile(r"\s*(?:(?:[MLQCz]|[-.0-9](?:\S*[^\sA-Za-z])?)(?:\s+|\Z))*")
+
+
 def _tokens(d: str) -> list[str]:
+    if d.isascii() and _SPACED.fullmatch(d):
+        return d.split()
     tokens = d.split()
     for token in tokens:
         if token not in _LETTERS and not (token[0].isdigit() or token[0] in "-."):
@@ -161,16 +168,22 @@ def _rewrite(name: str, value: str) -> str:
     return f' {name}="{_NUMBER.sub(_round, value)}"'
 
 
+#: Style attributes already rewritten, kept for the process (they repeat).
+_STYLES: dict[str, str] = {}
+
+
 def _style(match: re.Match[str]) -> str:
-    value = _STYLE_SPACE.sub(_separator, match.group(1)).rstrip(";")
-    return f' style="{value}"' if value else ""
+    whole = match.group(0)
+    done = _STYLES.get(whole)
+    if done is None:
+        value = _STYLE_SPACE.sub(r"\1", match.group(1)).rstrip(";")
+        done = f' style="{value}"' if value else ""
+        if len(_STYLES) < 20_000:
+            _STYLES[whole] = done
+    return done
 
 
 _STYLE_SPACE = re.compile(r"\s*([:;])\s*")
-
-
-def _separator(match: re.Match[str]) -> str:
-    return match.group(1)
 
 
 def compact(svg: bytes) -> bytes:
