@@ -186,12 +186,11 @@ def _mark_indices(coordinate: FloatArray, usable: BoolArray) -> list[int]:
     idx = np.flatnonzero(usable)
     if idx.size == 0:
         return []
-    picked = []
-    for target in _MARK_AT:
-        k = idx[int(np.argmin(np.abs(coordinate[idx] - target)))]
-        if abs(coordinate[k] - target) < 0.04:
-            picked.append(int(k))
-    return sorted(set(picked))
+    # For every target at once: its nearest usable point (the first of equals) if near.
+    gaps = np.abs(coordinate[idx][None, :] - _MARK_AT[:, None])
+    nearest = np.argmin(gaps, axis=1)
+    close = gaps[np.arange(_MARK_AT.size), nearest] < 0.04
+    return sorted({int(k) for k in idx[nearest[close]]})
 
 
 def _draw(ax: Axes, x: FloatArray, y: FloatArray, usable: BoolArray, extrapolated: BoolArray,

@@ -20,7 +20,7 @@ from __future__ import annotations
 import io
 import threading
 import weakref
-from typing import Any
+from typing import Any, Literal
 
 import matplotlib as mpl
 import numpy as np
@@ -429,8 +429,14 @@ def _reset(ax: Axes) -> None:
     if legend is not None:
         legend.remove()
     pad = float(mpl.rcParams["axes.titlepad"])
-    for loc in ("center", "left", "right"):
-        ax.set_title("", loc=loc, pad=pad)
+    # The left title always (it also sets the titles' shared padding back); the others
+    # only if they were given a text (their look is set back with it).
+    titles: tuple[tuple[Literal["center", "left", "right"], Any], ...] = (
+        ("center", ax.title), ("left", ax._left_title),  # type: ignore[attr-defined]
+        ("right", ax._right_title))  # type: ignore[attr-defined]
+    for loc, title in titles:
+        if loc == "left" or title.get_text():
+            ax.set_title("", loc=loc, pad=pad)
     labelpad = float(mpl.rcParams["axes.labelpad"])
     ax.set_xlabel("", labelpad=labelpad)
     ax.set_ylabel("", labelpad=labelpad)
