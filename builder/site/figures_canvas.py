@@ -55,6 +55,7 @@ __all__ = ["Kept", "plot_line", "svg_bytes"]
 _SIZES: dict[tuple[str, Any, FontProperties], tuple[float, float, float]] = {}
 _HEIGHTS: dict[FontProperties, tuple[Any, Any, Any]] = {}
 _TEXT_CSS: dict[tuple[FontProperties, Any, str], str] = {}
+_IDS: dict[tuple[str, str, str], str] = {}
 
 
 #: Attribute values as matplotlib's SVG writer quotes them, kept for the process (styles,
@@ -188,6 +189,21 @@ class _Renderer(RendererSVG):
         return metrics
 
 
+    def _make_id(self, type: str, content: Any) -> str:
+        """matplotlib's id of an element (a hash of the salt and the element's content),
+        kept for the process (marker definitions and clips repeat from figure to
+        figure)."""
+        salt = mpl.rcParams["svg.hashsalt"]
+        if salt is None:
+            return str(super()._make_id(type, content))
+        key = (salt, type, str(content))
+        oid = _IDS.get(key)
+        if oid is None:
+            oid = _IDS[key] = str(super()._make_id(type, content))
+            if len(_IDS) > 20_000:
+                _IDS.clear()
+        return oid
+
     def draw_markers(self, gc: Any, marker_path: Any, marker_trans: Any, path: Any,
                      trans: Any, rgbFace: Any = None) -> None:
         """matplotlib's markers (the same bytes: a definition once, then one ``<use>`` per
@@ -199,7 +215,8 @@ class _Renderer(RendererSVG):
         path_data = self._convert_path(marker_path, marker_trans + Affine2D().scale(1.0, -1.0),
                                        simplify=False)
         style = self._get_style_dict(gc, rgbFace)
-        dictkey = (path_data, _generate_css(style))
+        css = _generate_css(style)
+        dictkey = (path_data, css)
         oid = self._markers.get(dictkey)
         stroke = _generate_css({k: v for k, v in style.items() if k.startswith("stroke")})
         if oid is None:
@@ -225,7 +242,7 @@ class _Renderer(RendererSVG):
             points = np.array([vertices[-2:] for vertices, _code in path.iter_segments(
                 trans_and_flip, clip=clip, simplify=False) if len(vertices)]).reshape(-1, 2)
         head = f'xlink:href={_quoted(f"#{oid}")}'
-        use_style = self._get_style(gc, rgbFace)
+        use_style = css  # what self._get_style(gc, rgbFace) gives
         tail = f" style={_quoted(use_style)}" if use_style else ""
         attributes = [f' {head} x="{_short_float_fmt(x)}" y="{_short_float_fmt(y)}"{tail}'
                       for x, y in points.tolist()]
