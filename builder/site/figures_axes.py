@@ -11,7 +11,8 @@ labels (their padding grows by what the tick labels took).
 
 Positions, sizes and styles come from the same settings as matplotlib's own
 ticks (``xtick.major.size``, ``xtick.major.pad``, ``grid.color``, ...), so a
-figure looks the same; its SVG is smaller (a tick mark is one ``<use>``).
+figure looks the same; its SVG is smaller (a tick mark is one ``<use>``).  The
+marks and grid lines are drawn by :func:`~builder.site.figures_lines.draw_line`.
 """
 
 from __future__ import annotations

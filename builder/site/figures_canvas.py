@@ -5,7 +5,16 @@ cache of text sizes belongs to one renderer, and each ``savefig`` makes a new
 one); an atlas build writes thousands of figures with the same tick labels,
 titles and legend entries.  :func:`svg_bytes` writes a figure with a renderer
 that keeps the sizes for the whole process: the bytes are the same as
-``savefig(format="svg")`` gives (tested), only faster.
+``savefig(format="svg")`` gives (tested), only faster.  Its writer
+(:class:`_Writer`) writes each tag in one step with quoted attribute values
+kept, and it writes a line's markers at once (points from one call of
+matplotlib's path cleaning, the style worked out once per line, element ids
+kept for the process); the lines themselves are drawn by
+:func:`~builder.site.figures_lines.draw_line`.
+
+:func:`plot_line` adds a line to axes as ``plot`` would, without ``plot``'s
+argument parsing and with ``add_line``'s steps done directly (one clip box per
+axes, the data limits grown by the line's path).
 
 :class:`Kept` holds one prepared figure per kind (size and grid of axes) for
 reuse: a worker process draws hundreds of figures of the same kind, and making

@@ -8,7 +8,8 @@ the time.  :class:`LightLegend` places the same entries at the same places
 arithmetic those boxes do for the atlas's legends: entries filled column by
 column, each a handle (a line with its marker in the middle, or a patch) and
 its label on a shared baseline, no frame and no title.  Its texts are drawn by
-:func:`~builder.site.figures_text.draw_text`.
+:func:`~builder.site.figures_text.draw_text`, its line samples by
+:func:`~builder.site.figures_lines.draw_line`.
 
 The settings are matplotlib's (``legend.handlelength``, ``legend.labelspacing``,
 ...) and are read when the legend is made, as matplotlib's legend reads them.
