@@ -34,7 +34,7 @@ from matplotlib.textpath import TextToPath
 from matplotlib.ticker import NullLocator
 from matplotlib.transforms import ScaledTranslation
 
-from builder.site.figures_lines import LightLine
+from builder.site.figures_lines import LightLine, clip_to_axes
 from builder.site.figures_text import draw_text
 
 __all__ = ["light_axes", "text_size_pt"]
@@ -178,7 +178,7 @@ def _draw_axis(ax: Axes, axis: Axis, which: str) -> Callable[[], None]:
                 LightLine(across, along, transform=edge)
             grid.set(color=rc["grid.color"], linewidth=float(rc["grid.linewidth"]),
                      linestyle=rc["grid.linestyle"], alpha=rc["grid.alpha"], zorder=1.5)
-            grid.set_clip_path(ax.patch)  # inside the axes, as added to them
+            clip_to_axes(grid, ax)  # inside the axes, as added to them
             parts.append(grid)
     offset = axis.get_major_formatter().get_offset()
     if offset:

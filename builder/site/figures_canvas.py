@@ -28,7 +28,6 @@ from __future__ import annotations
 
 import io
 import threading
-import weakref
 from typing import Any, Literal
 
 import matplotlib as mpl
@@ -52,10 +51,10 @@ from matplotlib.font_manager import FontProperties, findfont, get_font
 from matplotlib.lines import Line2D
 from matplotlib.path import Path
 from matplotlib.ticker import AutoLocator, NullFormatter, NullLocator, ScalarFormatter
-from matplotlib.transforms import Affine2D, Bbox, TransformedBbox
+from matplotlib.transforms import Affine2D, Bbox
 
 from builder.site.figures_axes import light_axes
-from builder.site.figures_lines import LightLine
+from builder.site.figures_lines import LightLine, clip_to_axes
 from builder.site.figures_text import make_light
 from builder.site.svg import compact
 
@@ -359,11 +358,6 @@ def _font_css(prop: FontProperties) -> dict[str, str]:
     return style
 
 
-#: The clip box of lines added to axes (one per axes patch, shared by its lines: the box
-#: follows the axes as the one ``Axes.add_line`` makes for each line does).
-_CLIP_BOXES: weakref.WeakKeyDictionary[Any, TransformedBbox] = weakref.WeakKeyDictionary()
-
-
 def plot_line(ax: Axes, x: Any, y: Any, **style: Any) -> Line2D:
     """What ``ax.plot(x, y, **style)`` draws for one line whose colour is given, without
     ``plot``'s reading of its arguments and property cycle (a third of its time): the
@@ -383,15 +377,8 @@ def plot_line(ax: Axes, x: Any, y: Any, **style: Any) -> Line2D:
 def _add_line(ax: Axes, line: Line2D) -> None:
     """``ax.add_line(line)`` for a line in the axes' data coordinates."""
     ax._set_artist_props(line)  # type: ignore[attr-defined]
-    box = _CLIP_BOXES.get(ax.patch)
-    if box is None:
-        box = _CLIP_BOXES[ax.patch] = TransformedBbox(Bbox.unit(), ax.patch.get_transform())
     if line.get_clip_on() and line.get_clip_path() is None:
-        # What ``set_clip_path(ax.patch)`` does for the axes' rectangle.
-        line.clipbox = box
-        line._clippath = None  # type: ignore[attr-defined]
-        line.pchanged()
-        line.stale = True
+        clip_to_axes(line, ax)
     path: Any = line.get_path()
     if path.vertices.size:
         ax.dataLim.update_from_path(path, ax.ignore_existing_data_limits, updatex=True,

@@ -21,18 +21,37 @@ through :meth:`Line2D.draw` unchanged.
 
 from __future__ import annotations
 
+import weakref
 from numbers import Real
 from typing import Any
 
 from matplotlib import cbook
 from matplotlib import colors as mcolors
+from matplotlib.axes import Axes
 from matplotlib.backends.backend_svg import RendererSVG
 from matplotlib.lines import Line2D, _mark_every_path  # type: ignore[attr-defined]
+from matplotlib.transforms import Bbox, TransformedBbox
 
-__all__ = ["LightLine", "draw_line"]
+__all__ = ["LightLine", "clip_to_axes", "draw_line"]
+
+#: The clip box of lines clipped to axes (one per axes patch, shared by its lines: the box
+#: follows the axes as the one ``set_clip_path(ax.patch)`` makes for each line does).
+_CLIP_BOXES: weakref.WeakKeyDictionary[Any, TransformedBbox] = weakref.WeakKeyDictionary()
 
 #: The style attribute of a line's path per colour, width, dash pattern, join and cap.
 _STYLES: dict[tuple[Any, ...], str] = {}
+
+
+def clip_to_axes(line: Line2D, ax: Axes) -> None:
+    """What ``line.set_clip_path(ax.patch)`` does for the axes' rectangle, with the clip box
+    shared by the axes' lines (making one costs as much as adding the line)."""
+    box = _CLIP_BOXES.get(ax.patch)
+    if box is None:
+        box = _CLIP_BOXES[ax.patch] = TransformedBbox(Bbox.unit(), ax.patch.get_transform())
+    line.clipbox = box
+    line._clippath = None  # type: ignore[attr-defined]
+    line.pchanged()
+    line.stale = True
 
 
 class _Clip:
