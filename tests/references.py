@@ -149,13 +149,14 @@ def _thermo_excess_model(model: object) -> object:
 
 
 __all__ = ["COOLPROP_HEOS", "coolprop_psat_Pa", "thermo_flasher", "thermo_gammas",
-           "van_laar_closed_form"]
+           "thermo_pr_flasher", "van_laar_closed_form"]
 
 
 def thermo_pr_flasher(mixture: CubicMixture, molar_masses: tuple[float, float]) -> Any:
     """thermo's FlashVL with Peng–Robinson (PRMIX) in both phases, from the same critical
-    constants, acentric factors and k12 as ``mixture`` (a ``CubicMixture``); the heat
-    capacities are placeholders (they do not enter a VF = 0 or 1 flash at given T or P)."""
+    constants, acentric factors and k12 as ``mixture`` (a ``CubicMixture``).  thermo's flash
+    requires ideal-gas heat capacities; a constant 75 J/(mol K) is given, which does not
+    enter a VF = 0 or 1 flash at given T or P (only enthalpy and entropy use it)."""
     from thermo import (
         PRMIX,
         CEOSGas,

@@ -21,6 +21,7 @@ without knowing where they came from.
 from __future__ import annotations
 
 from dataclasses import replace
+from typing import Any
 
 import numpy as np
 from numpy.typing import NDArray
@@ -102,24 +103,21 @@ def refine(system: eq.BinarySystem, model: ActivityModel, isobar: bool, value: f
     extra_stable = stability.stable(model, extra.x1, extra.T_K)
     order = np.argsort(np.concatenate([curve.x1, extra.x1]), kind="stable")
 
-    def floats(a: FloatArray, b: FloatArray) -> FloatArray:
+    def both(a: NDArray[Any], b: NDArray[Any]) -> NDArray[Any]:
         return np.concatenate([a, b])[order]
 
-    def flags(a: NDArray[np.bool_], b: NDArray[np.bool_]) -> NDArray[np.bool_]:
-        return np.concatenate([a, b])[order]
-
-    merged = replace(curve, x1=floats(curve.x1, extra.x1), y1=floats(curve.y1, extra.y1),
-                     T_K=floats(curve.T_K, extra.T_K), P_Pa=floats(curve.P_Pa, extra.P_Pa),
-                     gamma1=floats(curve.gamma1, extra.gamma1),
-                     gamma2=floats(curve.gamma2, extra.gamma2),
-                     alpha12=floats(curve.alpha12, extra.alpha12),
-                     converged=flags(curve.converged, extra.converged))
+    merged = replace(curve, x1=both(curve.x1, extra.x1), y1=both(curve.y1, extra.y1),
+                     T_K=both(curve.T_K, extra.T_K), P_Pa=both(curve.P_Pa, extra.P_Pa),
+                     gamma1=both(curve.gamma1, extra.gamma1),
+                     gamma2=both(curve.gamma2, extra.gamma2),
+                     alpha12=both(curve.alpha12, extra.alpha12),
+                     converged=both(curve.converged, extra.converged))
     three = phases.three_phase
     assert three is not None  # stretch_compositions adds nothing without one
     extra_gap = ((extra.x1 > three.x1_a) & (extra.x1 < three.x1_b)) | ~extra_stable
-    was_added = flags(np.zeros(curve.x1.shape, dtype=bool), np.ones(extra.x1.shape, dtype=bool))
-    return merged, replace(phases, liquid_stable=flags(phases.liquid_stable, extra_stable),
-                           inside_gap=flags(phases.inside_gap, extra_gap)), was_added
+    was_added = both(np.zeros(curve.x1.shape, dtype=bool), np.ones(extra.x1.shape, dtype=bool))
+    return merged, replace(phases, liquid_stable=both(phases.liquid_stable, extra_stable),
+                           inside_gap=both(phases.inside_gap, extra_gap)), was_added
 
 
 def added_points(x1: FloatArray, three_phase: stability.ThreePhase | None) -> NDArray[np.bool_]:

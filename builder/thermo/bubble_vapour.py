@@ -94,22 +94,18 @@ def bubble_vapour(vapour: VapourModel, p1: FloatArray, p2: FloatArray, T_K: Floa
             return _newton_everywhere(p1, p2, a1, a2, s, L)
         total = p1 + p2
         has_vapour = np.isfinite(total) & (total > 0)
-        inner = has_vapour & (p1 > 0) & (p2 > 0) & ~capped
-        u = np.where(inner, L, 0.0)
-        step = np.zeros_like(u)
-        for _ in range(NEWTON_STEPS):
-            y = 1.0 / (1.0 + np.exp(-u))
-            yy = y * (1.0 - y)
-            step = np.where(inner, (u - L - s * (2.0 * y - 1.0)) / (1.0 - 2.0 * s * yy), 0.0)
-            u = u - step
-            if not (np.abs(step) * yy > 0.25 * Y_TOLERANCE).any():
-                break
-        # A pure end (p1 or p2 zero) has the pure vapour.
-        y = np.where(inner, 1.0 / (1.0 + np.exp(-u)), p1 / total)
-        ok = has_vapour & (~inner | (np.abs(step) * y * (1.0 - y) <= Y_TOLERANCE))
+        inner = np.flatnonzero(has_vapour & (p1 > 0) & (p2 > 0) & ~capped)
+        # A pure end (p1 or p2 zero) has the pure vapour; the other points take Newton.
+        y = p1 / total
         q1 = p1 * np.exp(a1 - s * (1.0 - y) ** 2)
         q2 = p2 * np.exp(a2 - s * y * y)
         y = q1 / (q1 + q2)
+        ok = has_vapour.copy()
+        if inner.size:
+            solved = _newton_everywhere(p1[inner], p2[inner], a1[inner], a2[inner], s[inner],
+                                        L[inner])
+            for out, part in zip((q1, q2, y, ok), solved, strict=True):
+                out[inner] = part
     nan = ~has_vapour
     if nan.any():
         q1, q2, y = (np.where(nan, np.nan, v) for v in (q1, q2, y))
@@ -125,9 +121,9 @@ def bubble_vapour(vapour: VapourModel, p1: FloatArray, p2: FloatArray, T_K: Floa
 def _newton_everywhere(p1: FloatArray, p2: FloatArray, a1: FloatArray, a2: FloatArray,
                        s: FloatArray, L: FloatArray
                        ) -> tuple[FloatArray, FloatArray, FloatArray, BoolArray]:
-    """:func:`bubble_vapour`'s Newton solve where every point takes it (the same steps as
-    the masked solve, without its masks: a bubble-point solver calls this a few times per
-    trial temperature, and on small arrays the masks cost as much as the steps)."""
+    """:func:`bubble_vapour`'s Newton solve of the points that take it, all of them given
+    (no masks: a bubble-point solver calls this a few times per trial temperature, and on
+    small arrays masks cost as much as the steps)."""
     u = L
     step = np.zeros_like(u)
     for _ in range(NEWTON_STEPS):
